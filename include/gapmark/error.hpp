@@ -1,0 +1,28 @@
+#pragma once
+// Errors the user can act on. Every message is one line that names the file,
+// line or field it is about; the CLI prints it and exits with a non-zero code.
+#include <stdexcept>
+#include <string>
+
+namespace gapmark {
+
+/// Bad input: a file, a spec, a parameter. `where` names the place
+/// ("data.csv:14", "spec.json: /schemes/1/rate", "--method").
+class InputError : public std::runtime_error {
+public:
+  InputError(std::string where, const std::string& what)
+      : std::runtime_error(where.empty() ? what : where + ": " + what), where_(std::move(where)) {}
+  const std::string& where() const noexcept { return where_; }
+
+private:
+  std::string where_;
+};
+
+/// A fill method could not fill a series (a need unmet, a numerical failure).
+/// The experiment records the cell as failed with this reason and goes on.
+class MethodFailure : public std::runtime_error {
+public:
+  using std::runtime_error::runtime_error;
+};
+
+}  // namespace gapmark

@@ -1,0 +1,62 @@
+#pragma once
+// What a run produces: one record per trial (series x scheme x rate x
+// replicate x method), the metric columns those records carry, the run's
+// context and its warnings. Summaries and reporters read these; they never
+// recompute a metric.
+#include <cstddef>
+#include <nlohmann/json.hpp>
+#include <string>
+#include <vector>
+
+#include "gapmark/score/metric.hpp"
+
+namespace gapmark {
+
+inline constexpr int kResultsSchemaVersion = 1;
+
+struct TrialRecord {
+  std::string series;     ///< series label
+  std::string scheme;     ///< canonical scheme call ("blocks:mean_length=12")
+  double rate = 0;
+  int replicate = 0;      ///< 0-based
+  std::string method;     ///< canonical method call
+  std::string status;     ///< "ok", "partial" (some points unfilled) or "failed"
+  std::string reason;     ///< why, when not ok
+  std::size_t masked = 0;    ///< points hidden and scored
+  std::size_t unfilled = 0;  ///< hidden points the method left empty
+  std::vector<double> metrics;  ///< one per column; NaN = not applicable
+  double seconds = 0;           ///< wall-clock fill time: kept out of `trials` in results.json
+
+  /// "method/series/scheme@rate/replicate": the trial's canonical name.
+  std::string name() const;
+};
+
+/// A fixed set of warnings, each with a hint on what to do.
+struct Warning {
+  std::string code;     ///< "few-masked-points", "observed-changed", ...
+  std::string where;    ///< the series, cell or trial it is about
+  std::string message;
+  std::string hint;
+};
+
+struct ResultSet {
+  nlohmann::json context;              ///< version, commit, schema, seed, spec, inputs' SHA-256
+  nlohmann::json series;               ///< per series: label, source, n, observed, period, step
+  std::vector<MetricColumn> columns;
+  std::vector<TrialRecord> trials;     ///< in canonical order
+  std::vector<Warning> warnings;
+  std::string rank_by = "rmse";
+  double alpha = 0.05;
+  nlohmann::json timing;               ///< wall-clock facts; comparisons ignore it
+
+  std::size_t column_index(const std::string& name) const;  ///< InputError if absent
+};
+
+/// Adds a warning unless the same (code, where) is already there.
+void add_warning(std::vector<Warning>& warnings, Warning warning);
+
+nlohmann::json trial_to_json(const TrialRecord& t, const std::vector<MetricColumn>& columns);
+TrialRecord trial_from_json(const nlohmann::json& j, const std::vector<MetricColumn>& columns,
+                            const std::string& where);
+
+}  // namespace gapmark

@@ -1,0 +1,21 @@
+#pragma once
+// results.json: the versioned record of a run. Layout:
+//   { "format": "gapmark-results", "schema_version": 1,
+//     "context": {tool, version, commit, seed, spec, spec_sha256, inputs[...]},
+//     "series": [...], "columns": [...], "trials": [...],
+//     "summary": {...}, "warnings": [...], "timing": {...} }
+// Only "timing" carries wall-clock facts; comparisons ignore it.
+#include <filesystem>
+#include <nlohmann/json.hpp>
+
+#include "gapmark/experiment/record.hpp"
+#include "gapmark/experiment/summary.hpp"
+
+namespace gapmark {
+
+nlohmann::json results_to_json(const ResultSet& results, const Summary& summary);
+/// Reads a results.json written by any run; errors name the file and field.
+ResultSet read_results(const std::filesystem::path& path);
+ResultSet results_from_json(const nlohmann::json& j, const std::string& source);
+
+}  // namespace gapmark

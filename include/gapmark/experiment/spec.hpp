@@ -1,0 +1,62 @@
+#pragma once
+// An experiment spec (JSON): which data, which masking schemes at which
+// rates, which methods, how many replicates, the seed, the holdout, the
+// metrics and the one that ranks. See README.md, "Experiment specs".
+#include <cstdint>
+#include <filesystem>
+#include <nlohmann/json.hpp>
+#include <optional>
+#include <string>
+#include <vector>
+
+#include "gapmark/fill/method.hpp"
+#include "gapmark/mask/scheme.hpp"
+#include "gapmark/score/metric.hpp"
+#include "gapmark/time_axis.hpp"
+
+namespace gapmark {
+
+struct DataSource {
+  std::string where;                  ///< JSON path, for messages ("/data/0")
+  std::filesystem::path path;         ///< resolved against the spec's folder
+  std::string label;                  ///< as written in the spec
+  std::vector<std::string> columns;   ///< empty: every variable column
+  std::string time_column;            ///< empty: the first column
+  std::optional<Step> step;           ///< empty: inferred
+  std::size_t period = 0;             ///< 0: from the step (24 for PT1H ...)
+};
+
+struct SchemePlan {
+  Bound<MaskScheme> scheme;
+  std::vector<double> rates;
+};
+
+struct ExperimentSpec {
+  std::string source;                 ///< the spec file, for messages
+  std::filesystem::path base_dir;     ///< paths in the spec are relative to it
+  std::string text;                   ///< the spec as read
+  std::string sha256;                 ///< of `text`
+  nlohmann::json json;                ///< the parsed spec
+
+  std::string name = "experiment";
+  std::uint64_t seed = 1;
+  int replicates = 10;
+  std::size_t holdout = 0;
+  std::filesystem::path output = "gapmark-out";
+  std::vector<DataSource> data;
+  std::vector<SchemePlan> schemes;
+  std::vector<Bound<FillMethod>> methods;
+  std::vector<Bound<Metric>> metrics;
+  std::string rank_by = "rmse";
+  double alpha = 0.05;
+};
+
+/// Reads and checks a spec file. Errors are one line naming the file and the
+/// JSON path of the offending field ("demo.json: /schemes/1/rates/0: ...").
+ExperimentSpec load_spec(const std::filesystem::path& path);
+/// Checks a spec given as text; `source` names it in errors, `base_dir`
+/// resolves relative data paths.
+ExperimentSpec parse_spec(const std::string& text, const std::string& source,
+                          const std::filesystem::path& base_dir);
+
+}  // namespace gapmark

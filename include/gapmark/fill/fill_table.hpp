@@ -1,0 +1,30 @@
+#pragma once
+// Filling the real gaps of a table's columns with one method: what
+// `gapmark fill` does.
+#include <string>
+#include <vector>
+
+#include "gapmark/fill/method.hpp"
+#include "gapmark/table_io.hpp"
+
+namespace gapmark {
+
+struct FillTableReport {
+  std::string column;
+  std::size_t gaps = 0;       ///< missing cells before filling
+  std::size_t filled = 0;     ///< of those, filled
+  std::string failure;        ///< the method's reason when it failed on the column
+};
+
+/// Fills the gaps of the selected columns in place (values and cells; filled
+/// cells are written at round-trip precision) and returns, per column, the
+/// flag cells ("1" where filled, "0" elsewhere) and a report. Other selected
+/// columns serve as siblings. `period` 0 = the axis's default.
+struct FillTableOutput {
+  std::vector<std::vector<std::string>> flags;  ///< one per selected column
+  std::vector<FillTableReport> reports;
+};
+FillTableOutput fill_table(WideTable& table, const std::vector<std::size_t>& columns,
+                           const Bound<FillMethod>& method, std::size_t period);
+
+}  // namespace gapmark

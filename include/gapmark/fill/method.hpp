@@ -1,0 +1,52 @@
+#pragma once
+// A fill method takes a series with NaN gaps and returns it filled. Observed
+// values must come back unchanged. A method may also return a variance for
+// each point (0 at observed points) when it has a predictive distribution.
+//
+// Edge policy, shared by the built-in methods unless their summary says
+// otherwise: a gap before the first or after the last observation is filled
+// with the nearest observed value (`edges=nearest`), or left missing
+// (`edges=leave`), in which case the scorer counts those points as unfilled.
+#include <cstddef>
+#include <span>
+#include <string>
+#include <vector>
+
+#include "gapmark/registry.hpp"
+#include "gapmark/time_axis.hpp"
+
+namespace gapmark {
+
+struct FillRequest {
+  std::span<const double> values;                  ///< NaN = to fill
+  const TimeAxis* axis = nullptr;                  ///< never null in the harness
+  std::size_t period = 0;                          ///< seasonal period, 0 = none
+  std::vector<std::span<const double>> siblings;   ///< other series on the same axis
+  std::vector<std::string> sibling_names;
+};
+
+struct FillResult {
+  std::vector<double> values;    ///< same length as the request; NaN = left unfilled
+  std::vector<double> variance;  ///< empty, or one per point (predictive variance)
+};
+
+class FillMethod {
+public:
+  static constexpr const char* family = "method";
+  virtual ~FillMethod() = default;
+  /// Fills the gaps. Throws MethodFailure with a reason when it cannot.
+  virtual FillResult fill(const FillRequest& request) const = 0;
+};
+
+using MethodRegistry = Registry<FillMethod>;
+
+/// Checks the method's needs against a request; throws MethodFailure naming
+/// the unmet need ("needs a seasonal period; set \"period\" in the spec").
+void check_needs(const Needs& needs, const FillRequest& request);
+
+/// The shared `edges` parameter (nearest | leave).
+ParamSpec edges_param();
+/// Fills leading and trailing gaps of `values` with the nearest observed value.
+void fill_edges_nearest(std::vector<double>& values);
+
+}  // namespace gapmark

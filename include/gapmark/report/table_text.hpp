@@ -1,0 +1,24 @@
+#pragma once
+// Shared text helpers for reporters: compact numbers for people, and a
+// Markdown table builder.
+#include <string>
+#include <vector>
+
+#include "gapmark/experiment/summary.hpp"
+
+namespace gapmark {
+
+/// Four significant digits for tables ("0.1235", "1.235e+05"); "n/a" for NaN.
+std::string short_number(double value);
+/// "mean ± sd" or "mean" when sd is undefined; "n/a" without a mean.
+std::string mean_sd(const MetricSummary& s);
+/// "[lo, hi]" or "".
+std::string interval(const MetricSummary& s);
+/// Words for a direction: "lower is better", "closer to 0 is better", ...
+std::string direction_words(Direction d);
+
+/// A Markdown table: header, rows, with `|` in cells escaped.
+std::string markdown_table(const std::vector<std::string>& header,
+                           const std::vector<std::vector<std::string>>& rows);
+
+}  // namespace gapmark

@@ -1,0 +1,115 @@
+// `gapmark methods`, `gapmark schemes`, `gapmark metrics`: what the registries
+// hold, as a readable table or as JSON. Read from the registries themselves,
+// so the listing never drifts from the code.
+#include <iostream>
+#include <nlohmann/json.hpp>
+
+#include "commands.hpp"
+#include "gapmark/fill/method.hpp"
+#include "gapmark/mask/scheme.hpp"
+#include "gapmark/score/metric.hpp"
+
+namespace gapmark::cli {
+namespace {
+
+std::string type_name(const ParamSpec& p) {
+  switch (p.type) {
+    case ParamType::Integer: return "integer";
+    case ParamType::Real: return "number";
+    case ParamType::Text: return "text";
+    case ParamType::Flag: return "true|false";
+    case ParamType::Choice: {
+      std::string s;
+      for (std::size_t i = 0; i < p.choices.size(); ++i) s += (i ? "|" : "") + p.choices[i];
+      return s;
+    }
+  }
+  return "";
+}
+
+std::string range_text(const ParamSpec& p) {
+  if (p.type != ParamType::Integer && p.type != ParamType::Real) return "";
+  std::string s;
+  if (p.min > -1e300) s += ">= " + param_to_text(p.min);
+  if (p.max < 1e300) s += std::string(s.empty() ? "" : ", ") + "<= " + param_to_text(p.max);
+  return s;
+}
+
+std::string needs_text(const Needs& n) {
+  std::string s;
+  if (n.period) s += "period";
+  if (n.siblings) s += std::string(s.empty() ? "" : ", ") + "siblings";
+  if (n.min_observed > 1)
+    s += std::string(s.empty() ? "" : ", ") + std::to_string(n.min_observed) + "+ observed";
+  return s.empty() ? "-" : s;
+}
+
+template <class Interface>
+nlohmann::json to_json(const Entry<Interface>& e) {
+  nlohmann::json params = nlohmann::json::array();
+  for (const auto& p : e.params) {
+    nlohmann::json j{{"name", p.name}, {"type", type_name(p)}, {"default", p.default_value}, {"help", p.help}};
+    if (p.type == ParamType::Integer || p.type == ParamType::Real) {
+      j["min"] = p.min > -1e300 ? nlohmann::json(p.min) : nlohmann::json(nullptr);
+      j["max"] = p.max < 1e300 ? nlohmann::json(p.max) : nlohmann::json(nullptr);
+    }
+    if (p.type == ParamType::Choice) j["choices"] = p.choices;
+    params.push_back(j);
+  }
+  return {{"name", e.name},
+          {"summary", e.summary},
+          {"needs", {{"period", e.needs.period}, {"siblings", e.needs.siblings}, {"min_observed", e.needs.min_observed}}},
+          {"params", params}};
+}
+
+template <class Interface>
+void print_table(const Registry<Interface>& registry, bool with_needs) {
+  for (const auto* e : registry.list()) {
+    std::cout << e->name;
+    if (with_needs) std::cout << "  [needs: " << needs_text(e->needs) << "]";
+    std::cout << "\n    " << e->summary << "\n";
+    for (const auto& p : e->params) {
+      std::cout << "    " << p.name << " = " << (p.default_value.empty() ? "(required)" : p.default_value)
+                << "  (" << type_name(p);
+      const std::string r = range_text(p);
+      if (!r.empty()) std::cout << "; " << r;
+      std::cout << ")  " << p.help << "\n";
+    }
+    std::cout << "\n";
+  }
+}
+
+template <class Interface>
+void add_list(CLI::App& app, Action& action, const std::string& name, const std::string& what,
+              bool with_needs) {
+  auto* cmd = app.add_subcommand(name, "List the " + what + " with their parameters");
+  auto json_flag = std::make_shared<bool>(false);
+  cmd->add_flag("--json", *json_flag, "Print as JSON");
+  cmd->callback([&action, json_flag, with_needs] {
+    action = [json_flag, with_needs] {
+      const auto& registry = Registry<Interface>::global();
+      if (*json_flag) {
+        nlohmann::json out = nlohmann::json::array();
+        for (const auto* e : registry.list()) out.push_back(to_json(*e));
+        std::cout << out.dump(2) << "\n";
+      } else {
+        print_table(registry, with_needs);
+      }
+      return kOk;
+    };
+  });
+}
+
+}  // namespace
+
+void add_methods(CLI::App& app, Action& action) {
+  add_list<FillMethod>(app, action, "methods", "fill methods", true);
+}
+void add_schemes(CLI::App& app, Action& action) {
+  add_list<MaskScheme>(app, action, "schemes", "masking schemes", false);
+}
+void add_metrics(CLI::App& app, Action& action) {
+  add_list<Metric>(app, action, "metrics", "metrics", false);
+}
+
+}  // namespace gapmark::cli

@@ -1,0 +1,46 @@
+// gapmark: benchmark gap-filling methods for time series.
+// The whole program: declare the subcommands, parse, run the chosen one,
+// turn errors into one line on stderr and an exit code.
+#include <iostream>
+
+#include "commands.hpp"
+#include "gapmark/error.hpp"
+#include "gapmark/version.hpp"
+
+int main(int argc, char** argv) {
+  using namespace gapmark::cli;
+  CLI::App app{"gapmark: hides known values in complete time series the way real gaps look, fills them "
+               "with every candidate method, scores the fills and ranks the methods."};
+  app.set_version_flag("--version", std::string("gapmark ") + gapmark::version() + " (" + gapmark::commit() + ")");
+  app.require_subcommand(1);
+  Action action;
+  add_run(app, action);
+  add_fill(app, action);
+  add_mask(app, action);
+  add_methods(app, action);
+  add_schemes(app, action);
+  add_metrics(app, action);
+  app.footer("Exit codes: 0 success, 1 a regression found by compare, 2 bad input or usage, 3 internal error.\n"
+             "Run `gapmark COMMAND --help` for a command's options.");
+  try {
+    app.parse(argc, argv);
+  } catch (const CLI::CallForHelp& e) {
+    return app.exit(e);
+  } catch (const CLI::CallForAllHelp& e) {
+    return app.exit(e);
+  } catch (const CLI::CallForVersion& e) {
+    return app.exit(e);
+  } catch (const CLI::ParseError& e) {
+    std::cerr << "gapmark: " << e.what() << "\n";
+    return kBadInput;
+  }
+  try {
+    return action ? action() : kBadInput;
+  } catch (const gapmark::InputError& e) {
+    std::cerr << "gapmark: " << e.what() << "\n";
+    return kBadInput;
+  } catch (const std::exception& e) {
+    std::cerr << "gapmark: internal error: " << e.what() << "\n";
+    return kInternal;
+  }
+}

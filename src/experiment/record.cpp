@@ -1,0 +1,69 @@
+#include "gapmark/experiment/record.hpp"
+
+#include <cmath>
+
+#include "gapmark/error.hpp"
+#include "gapmark/number_format.hpp"
+
+namespace gapmark {
+
+std::string TrialRecord::name() const {
+  return method + "/" + series + "/" + scheme + "@" + format_double(rate) + "/" + std::to_string(replicate);
+}
+
+std::size_t ResultSet::column_index(const std::string& name) const {
+  for (std::size_t i = 0; i < columns.size(); ++i)
+    if (columns[i].name == name) return i;
+  throw InputError("metric", "no metric column '" + name + "' in these results");
+}
+
+void add_warning(std::vector<Warning>& warnings, Warning warning) {
+  for (const auto& w : warnings)
+    if (w.code == warning.code && w.where == warning.where) return;
+  warnings.push_back(std::move(warning));
+}
+
+nlohmann::json trial_to_json(const TrialRecord& t, const std::vector<MetricColumn>& columns) {
+  nlohmann::json metrics = nlohmann::json::object();
+  for (std::size_t i = 0; i < columns.size(); ++i) {
+    const double v = i < t.metrics.size() ? t.metrics[i] : std::nan("");
+    metrics[columns[i].name] = std::isfinite(v) ? nlohmann::json(v) : nlohmann::json(nullptr);
+  }
+  return {{"series", t.series},
+          {"scheme", t.scheme},
+          {"rate", t.rate},
+          {"replicate", t.replicate},
+          {"method", t.method},
+          {"status", t.status},
+          {"reason", t.reason.empty() ? nlohmann::json(nullptr) : nlohmann::json(t.reason)},
+          {"masked", t.masked},
+          {"unfilled", t.unfilled},
+          {"metrics", metrics}};
+}
+
+TrialRecord trial_from_json(const nlohmann::json& j, const std::vector<MetricColumn>& columns,
+                            const std::string& where) {
+  TrialRecord t;
+  try {
+    t.series = j.at("series").get<std::string>();
+    t.scheme = j.at("scheme").get<std::string>();
+    t.rate = j.at("rate").get<double>();
+    t.replicate = j.at("replicate").get<int>();
+    t.method = j.at("method").get<std::string>();
+    t.status = j.at("status").get<std::string>();
+    if (!j.at("reason").is_null()) t.reason = j.at("reason").get<std::string>();
+    t.masked = j.at("masked").get<std::size_t>();
+    t.unfilled = j.at("unfilled").get<std::size_t>();
+    const auto& m = j.at("metrics");
+    t.metrics.resize(columns.size(), std::nan(""));
+    for (std::size_t i = 0; i < columns.size(); ++i) {
+      auto it = m.find(columns[i].name);
+      if (it != m.end() && it->is_number()) t.metrics[i] = it->get<double>();
+    }
+  } catch (const nlohmann::json::exception& e) {
+    throw InputError(where, std::string("malformed trial: ") + e.what());
+  }
+  return t;
+}
+
+}  // namespace gapmark

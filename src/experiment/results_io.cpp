@@ -1,0 +1,73 @@
+#include "gapmark/experiment/results_io.hpp"
+
+#include "gapmark/error.hpp"
+#include "gapmark/table_io.hpp"
+
+namespace gapmark {
+
+nlohmann::json results_to_json(const ResultSet& results, const Summary& summary) {
+  nlohmann::json columns = nlohmann::json::array();
+  for (const auto& c : results.columns)
+    columns.push_back({{"name", c.name}, {"unit", c.unit}, {"direction", to_string(c.direction)},
+                       {"summary", c.summary}});
+  nlohmann::json trials = nlohmann::json::array();
+  for (const auto& t : results.trials) trials.push_back(trial_to_json(t, results.columns));
+  nlohmann::json warnings = nlohmann::json::array();
+  for (const auto& w : results.warnings)
+    warnings.push_back({{"code", w.code}, {"where", w.where}, {"message", w.message}, {"hint", w.hint}});
+  return {{"format", "gapmark-results"},
+          {"schema_version", kResultsSchemaVersion},
+          {"context", results.context},
+          {"rank_by", results.rank_by},
+          {"alpha", results.alpha},
+          {"series", results.series},
+          {"columns", columns},
+          {"trials", trials},
+          {"summary", summary_to_json(summary, results)},
+          {"warnings", warnings},
+          {"timing", results.timing}};
+}
+
+ResultSet results_from_json(const nlohmann::json& j, const std::string& source) {
+  ResultSet r;
+  try {
+    if (j.value("format", "") != "gapmark-results")
+      throw InputError(source + ": /format", "not a gapmark results file");
+    const int version = j.at("schema_version").get<int>();
+    if (version != kResultsSchemaVersion)
+      throw InputError(source + ": /schema_version",
+                       "schema version " + std::to_string(version) + " is not supported (this tool reads " +
+                           std::to_string(kResultsSchemaVersion) + ")");
+    r.context = j.at("context");
+    r.series = j.at("series");
+    r.rank_by = j.at("rank_by").get<std::string>();
+    r.alpha = j.at("alpha").get<double>();
+    for (const auto& c : j.at("columns"))
+      r.columns.push_back({c.at("name").get<std::string>(), c.at("unit").get<std::string>(),
+                           direction_from_string(c.at("direction").get<std::string>()),
+                           c.at("summary").get<std::string>()});
+    const auto& trials = j.at("trials");
+    for (std::size_t i = 0; i < trials.size(); ++i)
+      r.trials.push_back(trial_from_json(trials[i], r.columns, source + ": /trials/" + std::to_string(i)));
+    for (const auto& w : j.at("warnings"))
+      r.warnings.push_back({w.at("code").get<std::string>(), w.at("where").get<std::string>(),
+                            w.at("message").get<std::string>(), w.at("hint").get<std::string>()});
+    if (j.contains("timing")) r.timing = j.at("timing");
+  } catch (const nlohmann::json::exception& e) {
+    throw InputError(source, std::string("malformed results: ") + e.what());
+  }
+  return r;
+}
+
+ResultSet read_results(const std::filesystem::path& path) {
+  const std::string text = read_text_file(path);
+  nlohmann::json j;
+  try {
+    j = nlohmann::json::parse(text);
+  } catch (const nlohmann::json::parse_error& e) {
+    throw InputError(path.string(), std::string("invalid JSON: ") + e.what());
+  }
+  return results_from_json(j, path.string());
+}
+
+}  // namespace gapmark

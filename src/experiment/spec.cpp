@@ -1,0 +1,202 @@
+#include "gapmark/experiment/spec.hpp"
+
+#include <cstdint>
+#include <set>
+
+#include "gapmark/error.hpp"
+#include "gapmark/hash.hpp"
+#include "gapmark/number_format.hpp"
+#include "gapmark/table_io.hpp"
+
+namespace gapmark {
+namespace {
+
+using nlohmann::json;
+
+const std::set<std::string> kTopLevel = {"name",    "seed",    "replicates", "holdout", "output",
+                                         "data",    "schemes", "methods",    "metrics", "rank_by",
+                                         "alpha",   "description"};
+const std::set<std::string> kDataKeys = {"file", "columns", "time_column", "step", "period"};
+
+struct Ctx {
+  std::string source;
+  std::string at(const std::string& pointer) const { return source + ": " + pointer; }
+};
+
+const json& require(const json& obj, const std::string& key, const Ctx& ctx, const std::string& base) {
+  auto it = obj.find(key);
+  if (it == obj.end()) throw InputError(ctx.at(base + "/" + key), "required field is missing");
+  return *it;
+}
+
+std::int64_t get_integer(const json& v, const Ctx& ctx, const std::string& pointer, std::int64_t lo,
+                         std::int64_t hi) {
+  if (!v.is_number_integer()) throw InputError(ctx.at(pointer), "expected a whole number");
+  auto x = v.get<std::int64_t>();
+  if (x < lo || x > hi)
+    throw InputError(ctx.at(pointer), "value " + std::to_string(x) + " is outside [" +
+                                          std::to_string(lo) + ", " + std::to_string(hi) + "]");
+  return x;
+}
+
+std::string get_string(const json& v, const Ctx& ctx, const std::string& pointer) {
+  if (!v.is_string()) throw InputError(ctx.at(pointer), "expected a string");
+  return v.get<std::string>();
+}
+
+const json& get_array(const json& v, const Ctx& ctx, const std::string& pointer) {
+  if (!v.is_array() || v.empty()) throw InputError(ctx.at(pointer), "expected a non-empty array");
+  return v;
+}
+
+std::size_t line_of(const std::string& text, std::size_t byte) {
+  std::size_t line = 1;
+  for (std::size_t i = 0; i < byte && i < text.size(); ++i)
+    if (text[i] == '\n') ++line;
+  return line;
+}
+
+DataSource parse_data(const json& v, const Ctx& ctx, const std::string& pointer,
+                      const std::filesystem::path& base_dir) {
+  DataSource d;
+  d.where = pointer;
+  json obj = v;
+  if (v.is_string()) obj = json{{"file", v}};
+  if (!obj.is_object()) throw InputError(ctx.at(pointer), "expected a file name or an object with \"file\"");
+  for (const auto& [key, value] : obj.items())
+    if (!kDataKeys.count(key))
+      throw InputError(ctx.at(pointer + "/" + key),
+                       "unknown field (known: file, columns, time_column, step, period)");
+  d.label = get_string(require(obj, "file", ctx, pointer), ctx, pointer + "/file");
+  d.path = std::filesystem::path(d.label).is_absolute() ? std::filesystem::path(d.label)
+                                                         : base_dir / d.label;
+  if (auto it = obj.find("columns"); it != obj.end()) {
+    const auto& cols = get_array(*it, ctx, pointer + "/columns");
+    for (std::size_t i = 0; i < cols.size(); ++i)
+      d.columns.push_back(get_string(cols[i], ctx, pointer + "/columns/" + std::to_string(i)));
+  }
+  if (auto it = obj.find("time_column"); it != obj.end())
+    d.time_column = get_string(*it, ctx, pointer + "/time_column");
+  if (auto it = obj.find("step"); it != obj.end())
+    d.step = Step::parse(get_string(*it, ctx, pointer + "/step"), ctx.at(pointer + "/step"));
+  if (auto it = obj.find("period"); it != obj.end())
+    d.period = static_cast<std::size_t>(get_integer(*it, ctx, pointer + "/period", 0, 1000000));
+  return d;
+}
+
+}  // namespace
+
+ExperimentSpec parse_spec(const std::string& text, const std::string& source,
+                          const std::filesystem::path& base_dir) {
+  const Ctx ctx{source};
+  ExperimentSpec spec;
+  spec.source = source;
+  spec.base_dir = base_dir;
+  spec.text = text;
+  spec.sha256 = sha256_hex(text);
+  try {
+    spec.json = json::parse(text);
+  } catch (const json::parse_error& e) {
+    std::string what = e.what();
+    auto pos = what.find("syntax error");
+    throw InputError(source + ":" + std::to_string(line_of(text, e.byte)),
+                     "invalid JSON: " + (pos == std::string::npos ? what : what.substr(pos)));
+  }
+  const json& j = spec.json;
+  if (!j.is_object()) throw InputError(ctx.at("/"), "expected a JSON object");
+  for (const auto& [key, value] : j.items())
+    if (!kTopLevel.count(key)) throw InputError(ctx.at("/" + key), "unknown field");
+
+  if (auto it = j.find("name"); it != j.end()) spec.name = get_string(*it, ctx, "/name");
+  if (auto it = j.find("seed"); it != j.end())
+    spec.seed = static_cast<std::uint64_t>(get_integer(*it, ctx, "/seed", 0, INT64_MAX));
+  if (auto it = j.find("replicates"); it != j.end())
+    spec.replicates = static_cast<int>(get_integer(*it, ctx, "/replicates", 1, 100000));
+  if (auto it = j.find("holdout"); it != j.end())
+    spec.holdout = static_cast<std::size_t>(get_integer(*it, ctx, "/holdout", 0, 100000000));
+  if (auto it = j.find("output"); it != j.end()) {
+    std::filesystem::path out = get_string(*it, ctx, "/output");
+    spec.output = out.is_absolute() ? out : base_dir / out;
+  } else {
+    spec.output = base_dir / "gapmark-out";
+  }
+  if (auto it = j.find("alpha"); it != j.end()) {
+    if (!it->is_number() || !(it->get<double>() > 0 && it->get<double>() < 0.5))
+      throw InputError(ctx.at("/alpha"), "expected a number in (0, 0.5)");
+    spec.alpha = it->get<double>();
+  }
+
+  const auto& data = get_array(require(j, "data", ctx, ""), ctx, "/data");
+  for (std::size_t i = 0; i < data.size(); ++i)
+    spec.data.push_back(parse_data(data[i], ctx, "/data/" + std::to_string(i), base_dir));
+
+  const auto& schemes = get_array(require(j, "schemes", ctx, ""), ctx, "/schemes");
+  for (std::size_t i = 0; i < schemes.size(); ++i) {
+    const std::string pointer = "/schemes/" + std::to_string(i);
+    CallSpec call = CallSpec::from_json(schemes[i], ctx.at(pointer), {"rates"});
+    SchemePlan plan;
+    std::vector<double> rates;
+    if (schemes[i].is_object() && schemes[i].contains("rates")) {
+      const auto& r = get_array(schemes[i]["rates"], ctx, pointer + "/rates");
+      for (std::size_t k = 0; k < r.size(); ++k) {
+        const std::string rp = pointer + "/rates/" + std::to_string(k);
+        if (!r[k].is_number()) throw InputError(ctx.at(rp), "expected a number");
+        rates.push_back(r[k].get<double>());
+        check_rate(rates.back(), ctx.at(rp));
+      }
+    } else if (auto rate = call.take("rate")) {
+      auto v = parse_double(*rate);
+      if (!v) throw InputError(ctx.at(pointer), "rate: expected a number, found '" + *rate + "'");
+      check_rate(*v, ctx.at(pointer));
+      rates.push_back(*v);
+    } else {
+      throw InputError(ctx.at(pointer + "/rates"), "required field is missing (e.g. \"rates\": [0.1, 0.3])");
+    }
+    plan.scheme = SchemeRegistry::global().bind(call, ctx.at(pointer));
+    plan.rates = std::move(rates);
+    spec.schemes.push_back(std::move(plan));
+  }
+
+  const auto& methods = get_array(require(j, "methods", ctx, ""), ctx, "/methods");
+  std::set<std::string> method_labels;
+  for (std::size_t i = 0; i < methods.size(); ++i) {
+    const std::string pointer = "/methods/" + std::to_string(i);
+    auto bound = MethodRegistry::global().bind(CallSpec::from_json(methods[i], ctx.at(pointer)),
+                                               ctx.at(pointer));
+    if (!method_labels.insert(bound.label).second)
+      throw InputError(ctx.at(pointer), "method '" + bound.label + "' is listed twice");
+    spec.methods.push_back(std::move(bound));
+  }
+
+  std::vector<std::pair<std::string, json>> metric_calls;
+  if (auto it = j.find("metrics"); it != j.end()) {
+    const auto& metrics = get_array(*it, ctx, "/metrics");
+    for (std::size_t i = 0; i < metrics.size(); ++i)
+      metric_calls.emplace_back("/metrics/" + std::to_string(i), metrics[i]);
+  } else {
+    for (const auto& name : default_metric_calls()) metric_calls.emplace_back("(default metrics)", name);
+  }
+  for (const auto& [pointer, value] : metric_calls)
+    spec.metrics.push_back(
+        MetricRegistry::global().bind(CallSpec::from_json(value, ctx.at(pointer)), ctx.at(pointer)));
+
+  std::set<std::string> column_names;
+  for (const auto& m : spec.metrics)
+    for (const auto& c : m.impl->columns()) column_names.insert(c.name);
+  if (auto it = j.find("rank_by"); it != j.end()) spec.rank_by = get_string(*it, ctx, "/rank_by");
+  if (!column_names.count(spec.rank_by)) {
+    std::string known;
+    for (const auto& c : column_names) known += (known.empty() ? "" : ", ") + c;
+    throw InputError(ctx.at("/rank_by"), "no metric column '" + spec.rank_by + "' (known: " + known + ")");
+  }
+  return spec;
+}
+
+ExperimentSpec load_spec(const std::filesystem::path& path) {
+  const std::string text = read_text_file(path);
+  auto base = path.parent_path();
+  if (base.empty()) base = ".";
+  return parse_spec(text, path.string(), base);
+}
+
+}  // namespace gapmark

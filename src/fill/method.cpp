@@ -1,0 +1,43 @@
+#include "gapmark/fill/method.hpp"
+
+#include <cmath>
+
+#include "gapmark/error.hpp"
+#include "gapmark/series.hpp"
+
+namespace gapmark {
+
+void check_needs(const Needs& needs, const FillRequest& request) {
+  if (needs.period && request.period < 2)
+    throw MethodFailure("needs a seasonal period of at least 2; set \"period\" for the data in the spec");
+  if (needs.period && request.period * 2 > request.values.size())
+    throw MethodFailure("needs at least two full periods of data (period " +
+                        std::to_string(request.period) + ", " +
+                        std::to_string(request.values.size()) + " points)");
+  if (needs.siblings && request.siblings.empty())
+    throw MethodFailure("needs sibling series on the same time axis; list several columns of one data set");
+  const std::size_t observed = count_observed(request.values);
+  if (observed < needs.min_observed)
+    throw MethodFailure("needs at least " + std::to_string(needs.min_observed) +
+                        " observed values, found " + std::to_string(observed));
+}
+
+ParamSpec edges_param() {
+  return {.name = "edges",
+          .type = ParamType::Choice,
+          .default_value = "nearest",
+          .choices = {"nearest", "leave"},
+          .help = "gaps before the first or after the last observation: nearest value, or left empty"};
+}
+
+void fill_edges_nearest(std::vector<double>& values) {
+  std::size_t first = 0;
+  while (first < values.size() && std::isnan(values[first])) ++first;
+  if (first == values.size()) return;
+  std::size_t last = values.size() - 1;
+  while (std::isnan(values[last])) --last;
+  for (std::size_t i = 0; i < first; ++i) values[i] = values[first];
+  for (std::size_t i = last + 1; i < values.size(); ++i) values[i] = values[last];
+}
+
+}  // namespace gapmark

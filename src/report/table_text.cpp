@@ -1,0 +1,61 @@
+#include "gapmark/report/table_text.hpp"
+
+#include <cmath>
+#include <cstdio>
+
+namespace gapmark {
+
+std::string short_number(double value) {
+  if (std::isnan(value)) return "n/a";
+  char buffer[32];
+  std::snprintf(buffer, sizeof buffer, "%.4g", value);
+  return buffer;
+}
+
+std::string mean_sd(const MetricSummary& s) {
+  if (s.n == 0 || std::isnan(s.mean)) return "n/a";
+  if (std::isnan(s.sd)) return short_number(s.mean);
+  return short_number(s.mean) + " ± " + short_number(s.sd);
+}
+
+std::string interval(const MetricSummary& s) {
+  if (std::isnan(s.ci_low)) return "";
+  return "[" + short_number(s.ci_low) + ", " + short_number(s.ci_high) + "]";
+}
+
+std::string direction_words(Direction d) {
+  switch (d) {
+    case Direction::Lower: return "lower is better";
+    case Direction::ZeroBest: return "closer to 0 is better";
+    case Direction::Higher: return "higher is better";
+    case Direction::OneBest: return "closer to 1 is better";
+    case Direction::None: return "descriptive";
+  }
+  return "";
+}
+
+std::string markdown_table(const std::vector<std::string>& header,
+                           const std::vector<std::vector<std::string>>& rows) {
+  auto escape = [](const std::string& cell) {
+    std::string out;
+    for (char c : cell) {
+      if (c == '|') out += "\\|";
+      else if (c == '\n') out += ' ';
+      else out += c;
+    }
+    return out;
+  };
+  std::string out = "|";
+  for (const auto& h : header) out += " " + escape(h) + " |";
+  out += "\n|";
+  for (std::size_t i = 0; i < header.size(); ++i) out += i < 2 ? "---|" : "--:|";
+  out += "\n";
+  for (const auto& row : rows) {
+    out += "|";
+    for (const auto& cell : row) out += " " + escape(cell) + " |";
+    out += "\n";
+  }
+  return out;
+}
+
+}  // namespace gapmark
