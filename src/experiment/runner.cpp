@@ -39,6 +39,7 @@ LoadedData load_data(const ExperimentSpec& spec) {
       s.axis = table.axis;
       s.values = table.values[c];
       s.period = src.period ? src.period : table.axis.default_period();
+      if (auto it = src.column_periods.find(s.name); it != src.column_periods.end()) s.period = it->second;
       if (s.observed_count() == 0)
         throw InputError(src.path.string(), "column '" + s.name + "' has no observed values");
       out.series.push_back(std::move(s));
@@ -96,7 +97,8 @@ std::vector<TrialRecord> run_task(const ExperimentSpec& spec, const LoadedData& 
   std::vector<TrialRecord> records;
   for (std::size_t m = 0; m < spec.methods.size(); ++m) records.push_back(blank_record(spec, data, task, m));
 
-  MaskRequest request{series.values, &series.axis, series.period, spec.holdout, plan.rates[task.rate]};
+  MaskRequest request{series.values, &series.axis, series.period, spec.holdout, plan.rates[task.rate],
+                      spec.source + ": " + plan.scheme.label + ", series '" + series.label() + "'"};
   Rng rng(task_seed(spec.seed, task_key(spec, data, task)));
   Mask mask;
   try {

@@ -16,7 +16,7 @@ using nlohmann::json;
 const std::set<std::string> kTopLevel = {"name",    "seed",    "replicates", "holdout", "output",
                                          "data",    "schemes", "methods",    "metrics", "rank_by",
                                          "alpha",   "description"};
-const std::set<std::string> kDataKeys = {"file", "columns", "time_column", "step", "period"};
+const std::set<std::string> kDataKeys = {"file", "columns", "time_column", "step", "period", "periods"};
 
 struct Ctx {
   std::string source;
@@ -66,7 +66,7 @@ DataSource parse_data(const json& v, const Ctx& ctx, const std::string& pointer,
   for (const auto& [key, value] : obj.items())
     if (!kDataKeys.count(key))
       throw InputError(ctx.at(pointer + "/" + key),
-                       "unknown field (known: file, columns, time_column, step, period)");
+                       "unknown field (known: file, columns, time_column, step, period, periods)");
   d.label = get_string(require(obj, "file", ctx, pointer), ctx, pointer + "/file");
   d.path = std::filesystem::path(d.label).is_absolute() ? std::filesystem::path(d.label)
                                                          : base_dir / d.label;
@@ -81,6 +81,12 @@ DataSource parse_data(const json& v, const Ctx& ctx, const std::string& pointer,
     d.step = Step::parse(get_string(*it, ctx, pointer + "/step"), ctx.at(pointer + "/step"));
   if (auto it = obj.find("period"); it != obj.end())
     d.period = static_cast<std::size_t>(get_integer(*it, ctx, pointer + "/period", 0, 1000000));
+  if (auto it = obj.find("periods"); it != obj.end()) {
+    if (!it->is_object()) throw InputError(ctx.at(pointer + "/periods"), "expected an object {\"column\": period}");
+    for (const auto& [column, value] : it->items())
+      d.column_periods[column] =
+          static_cast<std::size_t>(get_integer(value, ctx, pointer + "/periods/" + column, 0, 1000000));
+  }
   return d;
 }
 

@@ -4,6 +4,7 @@
 // metrics and the one that ranks. See README.md, "Experiment specs".
 #include <cstdint>
 #include <filesystem>
+#include <map>
 #include <nlohmann/json.hpp>
 #include <optional>
 #include <string>
@@ -24,6 +25,7 @@ struct DataSource {
   std::string time_column;            ///< empty: the first column
   std::optional<Step> step;           ///< empty: inferred
   std::size_t period = 0;             ///< 0: from the step (24 for PT1H ...)
+  std::map<std::string, std::size_t> column_periods;  ///< per-column periods, over `period`
 };
 
 struct SchemePlan {
