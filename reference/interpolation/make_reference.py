@@ -14,6 +14,7 @@ Writes, beside this script:
   seasonal_decomposition.json  complete series with the trend and seasonal
                              components of
                              statsmodels.tsa.seasonal.seasonal_decompose(model="additive")
+                             and of statsmodels.tsa.seasonal.STL(robust=False)
 
 All series are invented by this script (formulas and a seeded generator);
 they describe no real measurement.
@@ -28,7 +29,7 @@ import numpy as np
 import scipy
 import scipy.interpolate as si
 import statsmodels
-from statsmodels.tsa.seasonal import seasonal_decompose
+from statsmodels.tsa.seasonal import STL, seasonal_decompose
 
 HERE = pathlib.Path(__file__).resolve().parent
 
@@ -167,11 +168,15 @@ def decomposition_reference():
         shape = np.sin(2 * np.pi * (t % period) / period) * 4 + ((t % period) == 2) * 3.0
         x = 40.0 + 0.25 * t + 0.002 * t ** 2 + shape + rng.normal(0.0, 0.5, n)
         res = seasonal_decompose(x, model="additive", period=period)
+        stl = STL(x, period=period, robust=False)
+        fit = stl.fit()
         cases.append(dict(
             name=name, period=period,
             note="invented: trend + seasonal shape + seeded normal noise (numpy default_rng(20260301))",
             values=to_json_list(x), trend=to_json_list(res.trend),
-            seasonal=to_json_list(res.seasonal)))
+            seasonal=to_json_list(res.seasonal),
+            stl_config={k: (bool(v) if isinstance(v, (bool, np.bool_)) else int(v)) for k, v in stl.config.items()},
+            stl_trend=to_json_list(fit.trend), stl_seasonal=to_json_list(fit.seasonal)))
     return cases
 
 
@@ -202,7 +207,9 @@ def main():
     decomp = {
         "generated_by": "reference/interpolation/make_reference.py",
         "versions": versions(),
-        "source": "statsmodels.tsa.seasonal.seasonal_decompose(x, model='additive', period=p)",
+        "source": "trend, seasonal: statsmodels.tsa.seasonal.seasonal_decompose(x, model='additive', period=p); "
+                  "stl_trend, stl_seasonal: statsmodels.tsa.seasonal.STL(x, period=p, robust=False).fit() "
+                  "(defaults: seasonal=7, degrees 1, jumps 1, 5 inner passes, no outer passes)",
         "cases": decomposition_reference(),
     }
     (HERE / "seasonal_decomposition.json").write_text(json.dumps(decomp, indent=1) + "\n")

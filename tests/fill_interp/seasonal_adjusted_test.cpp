@@ -53,6 +53,30 @@ TEST_CASE("classical decomposition agrees with statsmodels seasonal_decompose(mo
   }
 }
 
+TEST_CASE("STL without robustness agrees with statsmodels STL(robust=False)") {
+  // Source: statsmodels 0.13.5 (Debian) STL defaults, stored by
+  // reference/interpolation/make_reference.py with the configuration used.
+  std::ifstream in(std::string(GAPMARK_SOURCE_DIR) + "/reference/interpolation/seasonal_decomposition.json");
+  REQUIRE(in.good());
+  const auto doc = nlohmann::json::parse(in);
+  for (const auto& c : doc["cases"]) {
+    CAPTURE(c["name"].get<std::string>());
+    REQUIRE(c["stl_config"]["seasonal"] == 7);
+    REQUIRE(c["stl_config"]["robust"] == false);
+    const auto x = from_json(c["values"]);
+    const auto trend = from_json(c["stl_trend"]);
+    const auto seasonal = from_json(c["stl_seasonal"]);
+    const auto got = stl_decomposition(x, c["period"].get<std::size_t>());
+    REQUIRE(got.trend.size() == x.size());
+    REQUIRE(got.seasonal.size() == x.size());
+    for (std::size_t i = 0; i < x.size(); ++i) {
+      CAPTURE(i);
+      CHECK(close(got.trend[i], trend[i], 1e-9, 1.0));
+      CHECK(close(got.seasonal[i], seasonal[i], 1e-9, 1.0));
+    }
+  }
+}
+
 TEST_CASE("classical decomposition refuses less than two full periods") {
   const std::vector<double> x(23, 1.0);
   CHECK_THROWS_AS(classical_decomposition(x, 12), MethodFailure);
@@ -81,6 +105,31 @@ TEST_CASE("seasonal-adjusted recovers linear trend + seasonal across a gap") {
     const auto plain = run_fill("linear", v, p);
     CHECK(std::abs(plain[2 * p + 3] - truth[2 * p + 3]) > 0.5);
   }
+}
+
+TEST_CASE("seasonal-adjusted with STL: better than linear inside a gap, better with more rounds") {
+  // Properties, not outside values: STL's loess season is bent by the
+  // provisional straight line in the gap; later rounds re-estimate it on the
+  // previous filling and the error shrinks.
+  const std::vector<double> shape{3, 5, 4, 1, -2, -4, -5, -3, -1, 0, 1, 1};
+  const auto truth = trend_plus_season(120, shape);
+  auto v = truth;
+  for (std::size_t t = 50; t < 58; ++t) v[t] = NA;
+  auto gap_error = [&](const std::vector<double>& f) {
+    double e = 0;
+    for (std::size_t t = 50; t < 58; ++t) e += std::abs(f[t] - truth[t]);
+    return e;
+  };
+  const double plain = gap_error(run_fill("linear", v, 12));
+  const double one = gap_error(run_fill("seasonal-adjusted:decomposition=stl,rounds=1", v, 12));
+  const auto three_filled = run_fill("seasonal-adjusted:decomposition=stl", v, 12);  // rounds=3
+  const double three = gap_error(three_filled);
+  const double six = gap_error(run_fill("seasonal-adjusted:decomposition=stl,rounds=6", v, 12));
+  CHECK(one < 0.5 * plain);
+  CHECK(three < 0.3 * one);
+  CHECK(six < 0.3 * three);
+  for (std::size_t i = 0; i < v.size(); ++i)
+    if (!std::isnan(v[i])) CHECK(three_filled[i] == v[i]);
 }
 
 TEST_CASE("seasonal-adjusted keeps observed values and uses the inner method") {

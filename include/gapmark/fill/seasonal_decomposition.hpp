@@ -1,6 +1,6 @@
 #pragma once
-// Classical additive decomposition of a complete series into trend and
-// seasonal components:
+// Additive decompositions of a complete series into trend and seasonal
+// components. Classical:
 //   trend     centred moving average over one period (for an even period,
 //             period + 1 points with half weight at both ends); NaN where the
 //             window does not fit inside the series
@@ -27,5 +27,17 @@ struct SeasonalDecomposition {
 /// uses all its points with a trend value. Cost: O(n).
 SeasonalDecomposition classical_decomposition(std::span<const double> series, std::size_t period,
                                               std::span<const bool> stand_in = {});
+
+struct StlOptions {
+  std::size_t seasonal_window = 7;  ///< n_s: loess window of the cycle-subseries, odd, >= 3
+  std::size_t passes = 5;           ///< runs of the inner loop (no robustness passes)
+};
+
+/// STL (Cleveland et al. 1990) without robustness weights, all loess fits of
+/// degree 1; trend window n_t = smallest odd >= 1.5 p / (1 - 1.5 / n_s),
+/// low-pass window n_l = smallest odd > p. Needs period >= 2 and two full
+/// periods; throws MethodFailure otherwise. Cost: O(n * period).
+SeasonalDecomposition stl_decomposition(std::span<const double> series, std::size_t period,
+                                        const StlOptions& options = {});
 
 }  // namespace gapmark
