@@ -1,0 +1,206 @@
+#pragma once
+// Univariate structural time-series models in state-space form, with an
+// exactly diffuse Kalman filter, a fixed-interval smoother of the signal and
+// maximum-likelihood estimation of the variances.
+//
+//   y_t       = Z a_t + e_t,          e_t ~ N(0, H)            (observation)
+//   a_{t+1}   = T a_t + R n_t,        n_t ~ N(0, diag(Q))      (state)
+//
+// Three models, nested:
+//   local level          state (level);                    variances H, level
+//   local linear trend   state (level, slope);             variances H, level, slope
+//   basic structural     state (level, slope, g_1..g_{s-1}), dummy seasonal of
+//                        period s: g_1,t+1 = -(g_1,t + ... + g_{s-1},t) + w_t;
+//                        variances H, level, slope, seasonal
+// The signal is Z a_t: level, plus the current seasonal effect g_1 in the
+// basic structural model. Its smoothed value is what a gap is filled with.
+//
+// Initial state: exactly diffuse (Durbin & Koopman 2012, ch. 5): a_1 has a
+// flat prior, carried as a separate "infinite" covariance P_inf that the
+// filter removes one rank at a time. The likelihood is the diffuse
+// likelihood: the first observations that absorb the flat prior add only
+// log F_inf (free of the variances). The filter starts at the first observed
+// value; times before it are back-cast from the smoothed state there (with a
+// flat prior the result is the same, and a long leading gap cannot spoil the
+// conditioning of P_inf). Missing values (NaN) skip the update.
+//
+// The transition matrices are applied through their structure (O(m^2) per
+// step for state dimension m, no dense m x m products in the main loop), so
+// a filter pass is O(n m^2), and O(n) for the level and trend models.
+#include <cstddef>
+#include <span>
+#include <string>
+#include <vector>
+
+#include <Eigen/Core>
+
+namespace gapmark::state_space {
+
+class StructuralModel {
+public:
+  static StructuralModel local_level();
+  static StructuralModel local_linear_trend();
+  /// Local linear trend plus a dummy seasonal of `period` (>= 2). Throws
+  /// std::invalid_argument for a smaller period.
+  static StructuralModel basic_structural(std::size_t period);
+
+  bool has_slope() const { return slope_; }
+  std::size_t period() const { return seasonal_ == 0 ? 0 : seasonal_ + 1; }
+  /// Dimension m of the state vector: 1, 2 or period + 1.
+  std::size_t state_dim() const { return 1 + (slope_ ? 1 : 0) + seasonal_; }
+  /// Index of g_1 (the current seasonal effect) in the state; only meaningful with a period.
+  std::size_t seasonal_start() const { return slope_ ? 2 : 1; }
+  /// Number of variances: irregular first, then one per disturbed state.
+  std::size_t variance_count() const { return 2 + (slope_ ? 1 : 0) + (seasonal_ ? 1 : 0); }
+  /// "irregular", "level", then "slope" and "seasonal" where present.
+  std::vector<std::string> variance_names() const;
+  /// The state disturbed by variance k (k >= 1): level 0, slope 1, seasonal g_1.
+  std::size_t disturbed_state(std::size_t k) const;
+  /// Short name: "level", "trend" or "seasonal(s)".
+  std::string name() const;
+
+  /// Dense forms, built from the definitions (for checks and inspection).
+  Eigen::MatrixXd transition_matrix() const;
+  Eigen::RowVectorXd design_row() const;
+
+  /// a <- T a, applied through the structure (a: m rows, any number of columns).
+  template <class D>
+  void transition(Eigen::MatrixBase<D>& a) const;
+  /// a <- T' a.
+  template <class D>
+  void transition_transposed(Eigen::MatrixBase<D>& a) const;
+  /// a <- T^{-1} a (every model here has an invertible T).
+  template <class D>
+  void transition_inverse(Eigen::MatrixBase<D>& a) const;
+
+  /// Z a: the level, plus g_1 with a period.
+  template <class D>
+  double signal_of(const Eigen::MatrixBase<D>& a) const {
+    return seasonal_ ? a(0) + a(seasonal_start()) : a(0);
+  }
+
+private:
+  StructuralModel(bool slope, std::size_t seasonal) : slope_(slope), seasonal_(seasonal) {}
+  bool slope_ = false;
+  std::size_t seasonal_ = 0;  ///< number of seasonal states: period - 1, or 0
+};
+
+/// The pieces of the diffuse log-likelihood from one filter pass.
+struct LikelihoodParts {
+  std::size_t observed = 0;   ///< observed values used
+  std::size_t diffuse = 0;    ///< of which absorbed by the flat prior (F_inf > 0)
+  double sum_log_f_inf = 0;   ///< sum of log F_inf over those
+  double sum_log_f = 0;       ///< sum of log F over the others
+  double sum_v2_over_f = 0;   ///< sum of v^2 / F over the others
+  bool finite = true;         ///< false when a variance F was not positive or not finite
+  bool prior_resolved = true; ///< false when too few observations to remove the flat prior
+
+  /// Observations that carry information on the variances.
+  std::size_t effective() const { return observed - diffuse; }
+  /// Diffuse Gaussian log-likelihood at the variances used.
+  double log_likelihood() const;
+  /// With all variances multiplied by a common scale c, the scale that
+  /// maximises the likelihood (sum v^2/F / effective())...
+  double best_scale() const;
+  /// ...and the log-likelihood there (the scale concentrated out).
+  double concentrated_log_likelihood() const;
+};
+
+/// One filter pass over `y` (NaN = missing) with the given variances
+/// (irregular first, model.variance_count() of them).
+LikelihoodParts filter_likelihood(const StructuralModel& model, std::span<const double> y,
+                                  std::span<const double> variances);
+
+/// Smoothed signal Z a_t given all of `y`: mean and variance at every t
+/// (including before the first and after the last observation).
+struct SmoothedSignal {
+  std::vector<double> mean;
+  std::vector<double> variance;
+  LikelihoodParts likelihood;
+};
+/// Throws MethodFailure when the filter fails or the observations are too
+/// few to remove the flat prior (the signal is then not identified).
+SmoothedSignal smooth_signal(const StructuralModel& model, std::span<const double> y,
+                             std::span<const double> variances);
+
+/// Observed values centred and scaled to unit (population) variance, without
+/// overflow for huge magnitudes: z = (y - centre) / scale, NaN kept. A
+/// constant or all-missing series has scale 0 and z all NaN.
+struct Standardised {
+  double centre = 0;
+  double scale = 0;
+  std::size_t observed = 0;
+  std::vector<double> z;
+};
+Standardised standardise(std::span<const double> y);
+
+struct FitOptions {
+  std::size_t max_evaluations = 600;  ///< per local search
+  double x_tolerance = 1e-7;          ///< on log variance ratios
+};
+
+struct FitResult {
+  std::vector<double> variances;  ///< maximum-likelihood estimates, irregular first, in data units
+  double log_likelihood = 0;      ///< diffuse log-likelihood there
+  std::size_t evaluations = 0;    ///< filter passes used
+  std::size_t starts = 0;         ///< local searches run
+};
+
+/// Maximum-likelihood variances. The common scale is concentrated out; the
+/// free parameters are the logs of the other variances relative to the
+/// reference one, searched by BOBYQA (NLopt) from a fixed grid of starting
+/// shares (see fit_starts). Deterministic. Throws MethodFailure when the
+/// likelihood cannot be evaluated anywhere or too few observations remain.
+FitResult fit_variances(const StructuralModel& model, std::span<const double> y,
+                        const FitOptions& options = {});
+
+/// The starting shares of the total variance (irregular first), each row
+/// summing to one: all equal; each component in turn holding 70%; and, for
+/// models with a slope, the irregular and level sharing nearly all of it
+/// with the slope (and seasonal) near zero, where such fits often end.
+std::vector<std::vector<double>> fit_starts(const StructuralModel& model);
+
+// ---------------------------------------------------------------- templates
+
+template <class D>
+void StructuralModel::transition(Eigen::MatrixBase<D>& a) const {
+  if (slope_) a.row(0) += a.row(1);
+  if (seasonal_ == 0) return;
+  const Eigen::Index s0 = static_cast<Eigen::Index>(seasonal_start());
+  const Eigen::Index k = static_cast<Eigen::Index>(seasonal_);
+  for (Eigen::Index c = 0; c < a.cols(); ++c) {
+    double sum = 0;
+    for (Eigen::Index j = 0; j < k; ++j) sum += a(s0 + j, c);
+    for (Eigen::Index j = k - 1; j >= 1; --j) a(s0 + j, c) = a(s0 + j - 1, c);
+    a(s0, c) = -sum;
+  }
+}
+
+template <class D>
+void StructuralModel::transition_transposed(Eigen::MatrixBase<D>& a) const {
+  if (slope_) a.row(1) += a.row(0);
+  if (seasonal_ == 0) return;
+  const Eigen::Index s0 = static_cast<Eigen::Index>(seasonal_start());
+  const Eigen::Index k = static_cast<Eigen::Index>(seasonal_);
+  for (Eigen::Index c = 0; c < a.cols(); ++c) {
+    const double first = a(s0, c);
+    for (Eigen::Index j = 0; j + 1 < k; ++j) a(s0 + j, c) = a(s0 + j + 1, c) - first;
+    a(s0 + k - 1, c) = -first;
+  }
+}
+
+template <class D>
+void StructuralModel::transition_inverse(Eigen::MatrixBase<D>& a) const {
+  if (slope_) a.row(0) -= a.row(1);
+  if (seasonal_ == 0) return;
+  const Eigen::Index s0 = static_cast<Eigen::Index>(seasonal_start());
+  const Eigen::Index k = static_cast<Eigen::Index>(seasonal_);
+  for (Eigen::Index c = 0; c < a.cols(); ++c) {
+    double sum = 0;
+    for (Eigen::Index j = 0; j < k; ++j) sum += a(s0 + j, c);
+    for (Eigen::Index j = 0; j + 1 < k; ++j) a(s0 + j, c) = a(s0 + j + 1, c);
+    a(s0 + k - 1, c) = -sum;
+  }
+}
+
+}  // namespace gapmark::state_space

@@ -1,0 +1,138 @@
+// Kalman smoothing: a structural state-space model (local level, local
+// linear trend, or local linear trend plus a dummy seasonal of the request's
+// period) is fitted by maximum likelihood (state_space.hpp), and each gap is
+// filled with the smoothed signal, Z a_t given all observations. The variance
+// returned at a filled point is that of the smoothed signal (variance=signal)
+// or of the missing value itself, signal plus irregular (variance=value); it
+// is 0 at observed points, which come back unchanged.
+//
+// Edges follow the shared policy. With edges=nearest the variance at an edge
+// point is the expected squared error of that nearest value under the model:
+// smoothed variance plus the squared distance to the smoothed signal.
+//
+// The data are centred and scaled to unit variance before fitting and
+// smoothing; results are scaled back. A constant series is filled with its
+// constant and variance 0 (every variance estimate would be zero).
+#include <cmath>
+#include <limits>
+#include <string>
+
+#include "gapmark/fill/method.hpp"
+#include "gapmark/fill/state_space.hpp"
+
+namespace gapmark {
+namespace {
+
+namespace ss = state_space;
+
+/// Observed values per state at the least: a rule of thumb (common practice).
+constexpr std::size_t kObservedPerState = 3;
+/// Dummy seasonals beyond this make the state too large to fit quickly.
+constexpr std::size_t kMaxPeriod = 100;
+
+class Kalman final : public FillMethod {
+public:
+  Kalman(std::string model, bool edges_nearest, bool value_variance)
+      : model_(std::move(model)), edges_nearest_(edges_nearest), value_variance_(value_variance) {}
+
+  FillResult fill(const FillRequest& request) const override {
+    const auto& x = request.values;
+    const std::size_t n = x.size();
+    const ss::StructuralModel model = build_model(request);
+    for (double v : x)
+      if (std::isinf(v)) throw MethodFailure("the observed values include an infinity");
+    const ss::Standardised data = ss::standardise(x);
+    const std::size_t needed = kObservedPerState * model.state_dim();
+    if (data.observed < needed)
+      throw MethodFailure("model=" + model_ + " needs at least " + std::to_string(needed) + " observed values (" +
+                          std::to_string(kObservedPerState) + " per state), found " +
+                          std::to_string(data.observed));
+
+    FillResult result;
+    result.values.assign(x.begin(), x.end());
+    result.variance.assign(n, 0.0);
+    std::size_t first = 0, last = n - 1;
+    while (std::isnan(x[first])) ++first;
+    while (std::isnan(x[last])) --last;
+
+    if (data.scale == 0) {  // constant: the model's fit is exact, every variance is zero
+      for (std::size_t t = 0; t < n; ++t)
+        if (std::isnan(x[t])) set_fill(result, t, (t > first && t < last) || edges_nearest_ ? x[first] : kNaN, 0.0);
+      return result;
+    }
+
+    const ss::FitResult fit = ss::fit_variances(model, data.z);
+    const ss::SmoothedSignal smooth = ss::smooth_signal(model, data.z, fit.variances);
+    const double extra = value_variance_ ? fit.variances[0] : 0.0;
+    const double s = data.scale;
+    for (std::size_t t = 0; t < n; ++t) {
+      if (!std::isnan(x[t])) continue;
+      const double mean = smooth.mean[t], var = smooth.variance[t] + extra;
+      if (!std::isfinite(mean) || !std::isfinite(var))
+        throw MethodFailure("the smoother gave a non-finite value at point " + std::to_string(t + 1));
+      if (t > first && t < last) {
+        set_fill(result, t, data.centre + s * mean, s * s * var);
+      } else if (edges_nearest_) {
+        const std::size_t near = t < first ? first : last;
+        const double gap = mean - data.z[near];
+        set_fill(result, t, x[near], s * s * (var + gap * gap));
+      } else {
+        set_fill(result, t, kNaN, kNaN);
+      }
+    }
+    return result;
+  }
+
+private:
+  static constexpr double kNaN = std::numeric_limits<double>::quiet_NaN();
+
+  static void set_fill(FillResult& r, std::size_t t, double value, double variance) {
+    r.values[t] = value;
+    r.variance[t] = std::isnan(value) ? kNaN : variance;
+  }
+
+  ss::StructuralModel build_model(const FillRequest& request) const {
+    if (model_ == "level") return ss::StructuralModel::local_level();
+    if (model_ == "trend") return ss::StructuralModel::local_linear_trend();
+    const std::size_t period = request.period;
+    if (period < 2) throw MethodFailure("model=seasonal needs a seasonal period; set \"period\" in the spec");
+    if (2 * period > request.values.size())
+      throw MethodFailure("model=seasonal needs a seasonal period of at most half the series (period " +
+                          std::to_string(period) + ", " + std::to_string(request.values.size()) +
+                          " points); set \"period\" in the spec");
+    if (period > kMaxPeriod)
+      throw MethodFailure("model=seasonal handles periods up to " + std::to_string(kMaxPeriod) + " (period " +
+                          std::to_string(period) + " gives too large a state)");
+    return ss::StructuralModel::basic_structural(period);
+  }
+
+  std::string model_;
+  bool edges_nearest_;
+  bool value_variance_;
+};
+
+const Registration<FillMethod> registration{{
+    .name = "kalman",
+    .summary = "smoothed signal of a structural state-space model (local level, local linear trend, or "
+               "trend plus seasonal) with maximum-likelihood variances",
+    .params = {{.name = "model",
+                .type = ParamType::Choice,
+                .default_value = "level",
+                .choices = {"level", "trend", "seasonal"},
+                .help = "level: random-walk level; trend: level and slope; seasonal: level, slope and a "
+                        "dummy seasonal of the series' period"},
+               edges_param(),
+               {.name = "variance",
+                .type = ParamType::Choice,
+                .default_value = "signal",
+                .choices = {"signal", "value"},
+                .help = "variance returned at filled points: of the smoothed signal, or of the missing value "
+                        "itself (signal plus irregular)"}},
+    .needs = {.period = false, .siblings = false, .min_observed = 3},
+    .make = [](const ParamValues& p) {
+      return std::make_unique<Kalman>(p.text("model"), p.text("edges") == "nearest", p.text("variance") == "value");
+    },
+}};
+
+}  // namespace
+}  // namespace gapmark

@@ -1,0 +1,153 @@
+// Maximum-likelihood variances of a structural model.
+//
+// The data are centred and scaled to unit variance first (the diffuse
+// likelihood does not depend on the centre, and the scale only shifts it by
+// -effective * log(scale)), so huge or tiny magnitudes behave alike.
+//
+// Parameters: one variance is the reference; the others are exp(x_j) times
+// it, and the common scale is concentrated out of the likelihood (its best
+// value is sum(v^2/F) / effective), leaving variance_count - 1 free log
+// ratios, each bounded to [-23, 23] (ratios 1e-10 .. 1e10). BOBYQA (NLopt,
+// derivative-free, deterministic) maximises the concentrated likelihood from
+// each starting share in fit_starts(); the reference of a start is its
+// largest share. The best end point is then polished once with its own
+// largest variance as the reference, so that a reference whose estimate
+// goes to zero cannot pin the others to a bound.
+#include <algorithm>
+#include <cmath>
+#include <exception>
+#include <limits>
+#include <string>
+#include <nlopt.hpp>
+
+#include "gapmark/error.hpp"
+#include "gapmark/fill/state_space.hpp"
+
+namespace gapmark::state_space {
+namespace {
+
+constexpr double kBound = 23.0;
+/// Returned to the optimiser where the likelihood cannot be evaluated.
+constexpr double kPenalty = 1e100;
+
+struct Search {
+  Search(const StructuralModel& m, std::span<const double> data) : model(m), y(data) {}
+
+  const StructuralModel& model;
+  std::span<const double> y;
+  std::size_t reference = 0;
+  std::vector<double> relative;  ///< scratch: variances relative to the reference
+  std::size_t evaluations = 0;
+  double best = -std::numeric_limits<double>::infinity();  ///< best concentrated log-likelihood seen
+  std::vector<double> best_relative;
+
+  void set_relative(const double* x) {
+    relative.assign(model.variance_count(), 1.0);
+    for (std::size_t j = 0, i = 0; j < relative.size(); ++j)
+      if (j != reference) relative[j] = std::exp(x[i++]);
+  }
+
+  double negative_log_likelihood(const double* x) {
+    set_relative(x);
+    ++evaluations;
+    const double ll = filter_likelihood(model, y, relative).concentrated_log_likelihood();
+    if (!std::isfinite(ll)) return kPenalty;
+    if (ll > best) {
+      best = ll;
+      best_relative = relative;
+    }
+    return -ll;
+  }
+
+  static double callback(unsigned, const double* x, double*, void* data) {
+    return static_cast<Search*>(data)->negative_log_likelihood(x);
+  }
+
+  /// One local search from `start` (variances in any common unit).
+  void run(const std::vector<double>& start, const FitOptions& options) {
+    reference = static_cast<std::size_t>(std::max_element(start.begin(), start.end()) - start.begin());
+    std::vector<double> x;
+    for (std::size_t j = 0; j < start.size(); ++j)
+      if (j != reference)
+        x.push_back(std::clamp(std::log(start[j] / start[reference]), -kBound, kBound));
+    nlopt::opt opt(nlopt::LN_BOBYQA, static_cast<unsigned>(x.size()));
+    opt.set_lower_bounds(std::vector<double>(x.size(), -kBound));
+    opt.set_upper_bounds(std::vector<double>(x.size(), kBound));
+    opt.set_min_objective(&Search::callback, this);
+    opt.set_xtol_abs(options.x_tolerance);
+    opt.set_maxeval(static_cast<int>(options.max_evaluations));
+    opt.set_initial_step(1.0);
+    double value = 0;
+    try {
+      opt.optimize(x, value);
+    } catch (const std::exception&) {
+      // Round-off limits and the like: the best point seen is kept either way.
+    }
+  }
+};
+
+}  // namespace
+
+Standardised standardise(std::span<const double> y) {
+  Standardised out;
+  const double nan = std::numeric_limits<double>::quiet_NaN();
+  out.z.assign(y.size(), nan);
+  double largest = 0;
+  for (double v : y)
+    if (!std::isnan(v)) {
+      largest = std::max(largest, std::abs(v));
+      ++out.observed;
+    }
+  if (out.observed == 0 || !(largest > 0) || !std::isfinite(largest)) return out;
+  // Mean and variance of y / largest (all within [-1, 1]), then scaled back.
+  double mean = 0;
+  std::size_t k = 0;
+  for (double v : y)
+    if (!std::isnan(v)) mean += (v / largest - mean) / static_cast<double>(++k);
+  double ss = 0;
+  for (double v : y)
+    if (!std::isnan(v)) ss += (v / largest - mean) * (v / largest - mean);
+  const double sd = std::sqrt(ss / static_cast<double>(out.observed));
+  out.centre = mean * largest;
+  if (!(sd > 0)) return out;
+  out.scale = sd * largest;
+  for (std::size_t t = 0; t < y.size(); ++t)
+    if (!std::isnan(y[t])) out.z[t] = (y[t] / largest - mean) / sd;
+  return out;
+}
+
+FitResult fit_variances(const StructuralModel& model, std::span<const double> y, const FitOptions& options) {
+  const Standardised data = standardise(y);
+  if (data.observed <= model.state_dim())
+    throw MethodFailure("too few observations for the " + model.name() + " model: " + std::to_string(data.observed) +
+                        " observed, more than " + std::to_string(model.state_dim()) + " needed");
+  if (!(data.scale > 0) || !std::isfinite(data.scale))
+    throw MethodFailure("the observed values are constant (or not finite): no variance to estimate");
+  const double scale = data.scale;
+  const std::vector<double>& z = data.z;
+
+  Search search(model, z);
+  FitResult result;
+  for (const auto& share : fit_starts(model)) {
+    search.run(share, options);
+    ++result.starts;
+  }
+  if (search.best_relative.empty())
+    throw MethodFailure("the " + model.name() + " model's likelihood is not finite at any starting point");
+  const std::vector<double> best_start = search.best_relative;
+  search.run(best_start, options);
+  ++result.starts;
+
+  const LikelihoodParts parts = filter_likelihood(model, z, search.best_relative);
+  const double sigma2 = parts.best_scale();
+  if (!(sigma2 > 0) || !std::isfinite(sigma2))
+    throw MethodFailure("the " + model.name() + " model's fitted scale is not positive");
+  result.variances.resize(model.variance_count());
+  for (std::size_t j = 0; j < result.variances.size(); ++j)
+    result.variances[j] = search.best_relative[j] * sigma2 * scale * scale;
+  result.log_likelihood = search.best - static_cast<double>(parts.effective()) * std::log(scale);
+  result.evaluations = search.evaluations + 1;
+  return result;
+}
+
+}  // namespace gapmark::state_space

@@ -1,0 +1,212 @@
+// The registered `kalman` fill method: its contract (observed values
+// unchanged, variances, edges, determinism), its failures, and awkward data.
+// Data here are invented (random walks plus noise from a fixed seed).
+#include <doctest/doctest.h>
+
+#include <algorithm>
+#include <cmath>
+#include <cstring>
+
+#include "gapmark/error.hpp"
+#include "gapmark/fill/state_space.hpp"
+#include "kalman_helpers.hpp"
+
+using gapmark::FillRequest;
+using gapmark::MethodFailure;
+using kalman_test::kalman;
+using kalman_test::kNaN;
+
+namespace {
+
+gapmark::FillResult run(const std::string& args, const std::vector<double>& y, std::size_t period = 0) {
+  FillRequest r;
+  r.values = y;
+  r.period = period;
+  return kalman(args)->fill(r);
+}
+
+std::string failure_of(const std::string& args, const std::vector<double>& y, std::size_t period = 0) {
+  try {
+    run(args, y, period);
+  } catch (const MethodFailure& e) {
+    return e.what();
+  }
+  return "";
+}
+
+}  // namespace
+
+TEST_CASE("kalman is registered with its parameters") {
+  const auto* e = gapmark::MethodRegistry::global().find("kalman");
+  REQUIRE(e != nullptr);
+  std::vector<std::string> names;
+  for (const auto& p : e->params) names.push_back(p.name);
+  CHECK(names == std::vector<std::string>{"model", "edges", "variance"});
+}
+
+TEST_CASE("observed values come back unchanged; filled points get the smoothed signal and its variance") {
+  const auto truth = kalman_test::invented_series(300, 11, 0.5, 1.0);
+  auto y = kalman_test::with_random_gaps(truth, 0.3, 12);
+  for (std::size_t t = 100; t < 130; ++t) y[t] = kNaN;
+  for (const std::string model : {"level", "trend"}) {
+    CAPTURE(model);
+    const auto out = run("model=" + model, y);
+    REQUIRE(out.values.size() == y.size());
+    REQUIRE(out.variance.size() == y.size());
+    // Same fill as the library's fit and smoother on the standardised data.
+    const auto m = model == "level" ? gapmark::state_space::StructuralModel::local_level()
+                                    : gapmark::state_space::StructuralModel::local_linear_trend();
+    const auto st = gapmark::state_space::standardise(y);
+    const auto fit = gapmark::state_space::fit_variances(m, st.z);
+    const auto sm = gapmark::state_space::smooth_signal(m, st.z, fit.variances);
+    double sq = 0;
+    std::size_t filled = 0;
+    for (std::size_t t = 0; t < y.size(); ++t) {
+      if (!std::isnan(y[t])) {
+        CHECK(out.values[t] == y[t]);
+        CHECK(out.variance[t] == 0);
+        continue;
+      }
+      CHECK(out.values[t] == doctest::Approx(st.centre + st.scale * sm.mean[t]).epsilon(1e-12));
+      CHECK(out.variance[t] == doctest::Approx(st.scale * st.scale * sm.variance[t]).epsilon(1e-12));
+      CHECK(out.variance[t] > 0);
+      sq += (out.values[t] - truth[t]) * (out.values[t] - truth[t]);
+      ++filled;
+    }
+    // The fill tracks the invented truth far better than the series' own spread.
+    CHECK(std::sqrt(sq / filled) < 0.5 * st.scale);
+  }
+}
+
+TEST_CASE("variance grows toward the middle of a long gap") {
+  auto y = kalman_test::invented_series(200, 21, 0.3, 0.5);
+  for (std::size_t t = 80; t < 121; ++t) y[t] = kNaN;
+  const auto out = run("", y);
+  CHECK(out.variance[100] > out.variance[85]);
+  CHECK(out.variance[100] > out.variance[115]);
+}
+
+TEST_CASE("variance=value adds the irregular variance to that of the signal") {
+  auto y = kalman_test::invented_series(200, 31, 0.3, 1.0);
+  y[50] = y[51] = kNaN;
+  const auto signal = run("variance=signal", y);
+  const auto value = run("variance=value", y);
+  CHECK(value.values[50] == signal.values[50]);
+  const auto st = gapmark::state_space::standardise(y);
+  const auto fit = gapmark::state_space::fit_variances(gapmark::state_space::StructuralModel::local_level(), y);
+  CHECK(value.variance[50] == doctest::Approx(signal.variance[50] + fit.variances[0]).epsilon(1e-6));
+  CHECK(value.variance[10] == 0);
+  (void)st;
+}
+
+TEST_CASE("seasonal model follows a season through a gap of a whole period") {
+  const auto truth = kalman_test::invented_series(240, 41, 0.05, 0.2, 12, 3.0);
+  auto y = truth;
+  for (std::size_t t = 120; t < 132; ++t) y[t] = kNaN;
+  const auto seasonal = run("model=seasonal", y, 12);
+  const auto level = run("model=level", y, 12);
+  double err_s = 0, err_l = 0;
+  for (std::size_t t = 120; t < 132; ++t) {
+    err_s += std::abs(seasonal.values[t] - truth[t]);
+    err_l += std::abs(level.values[t] - truth[t]);
+  }
+  CHECK(err_s < 0.3 * err_l);
+}
+
+TEST_CASE("edges: nearest value with its expected squared error, or left empty") {
+  auto y = kalman_test::invented_series(120, 51, 0.3, 0.5);
+  for (std::size_t t = 0; t < 5; ++t) y[t] = kNaN;
+  for (std::size_t t = 115; t < 120; ++t) y[t] = kNaN;
+  const auto near = run("edges=nearest", y);
+  const auto leave = run("edges=leave", y);
+  for (std::size_t t : {0, 4}) {
+    CHECK(near.values[t] == y[5]);
+    CHECK(std::isfinite(near.variance[t]));
+    CHECK(near.variance[t] > 0);
+    CHECK(std::isnan(leave.values[t]));
+  }
+  CHECK(near.values[119] == y[114]);
+  CHECK(std::isnan(leave.values[119]));
+  // Farther from the data the model is less sure of the nearest value.
+  CHECK(near.variance[0] > near.variance[4]);
+  CHECK(near.variance[119] > near.variance[115]);
+  CHECK(leave.values[50] == near.values[50]);
+}
+
+TEST_CASE("model=seasonal without a usable period fails with a clear reason") {
+  const auto y = kalman_test::invented_series(100, 61, 0.3, 0.5);
+  CHECK(failure_of("model=seasonal", y, 0) ==
+        "model=seasonal needs a seasonal period; set \"period\" in the spec");
+  CHECK(failure_of("model=seasonal", y, 1) ==
+        "model=seasonal needs a seasonal period; set \"period\" in the spec");
+  CHECK(failure_of("model=seasonal", y, 60).find("at most half the series") != std::string::npos);
+  CHECK(failure_of("model=seasonal", kalman_test::invented_series(400, 62, 0.3, 0.5), 150)
+            .find("periods up to") != std::string::npos);
+  CHECK(failure_of("model=level", y, 0).empty());  // the period is only needed by model=seasonal
+}
+
+TEST_CASE("too few observations for the model's states is a MethodFailure") {
+  std::vector<double> y(50, kNaN);
+  y[10] = 1.0;
+  CHECK(failure_of("", y) == "model=level needs at least 3 observed values (3 per state), found 1");
+  y[20] = 2.0;
+  y[30] = 1.5;
+  y[40] = 1.7;
+  CHECK(failure_of("", y).empty());
+  CHECK(failure_of("model=trend", y).find("needs at least 6 observed values") != std::string::npos);
+  std::vector<double> none(10, kNaN);
+  CHECK_THROWS_AS(run("", none), MethodFailure);
+}
+
+TEST_CASE("a constant series is filled with its constant and variance zero") {
+  std::vector<double> y(40, 7.25);
+  y[3] = y[20] = y[21] = y[39] = kNaN;
+  for (const std::string model : {"level", "trend"}) {
+    const auto out = run("model=" + model, y);
+    for (std::size_t t = 0; t < y.size(); ++t) {
+      CHECK(out.values[t] == 7.25);
+      CHECK(out.variance[t] == 0);
+    }
+  }
+}
+
+TEST_CASE("huge and tiny magnitudes give the same fill, scaled") {
+  auto y = kalman_test::invented_series(150, 71, 0.4, 0.6);
+  y = kalman_test::with_random_gaps(y, 0.2, 72);
+  const auto base = run("model=trend", y);
+  for (double factor : {1e150, 1e-150, 1e-300}) {
+    CAPTURE(factor);
+    std::vector<double> scaled(y);
+    for (double& v : scaled) v *= factor;
+    const auto out = run("model=trend", scaled);
+    for (std::size_t t = 0; t < y.size(); ++t) {
+      if (!std::isnan(y[t])) continue;
+      REQUIRE(std::isfinite(out.values[t]));
+      CHECK(out.values[t] / factor == doctest::Approx(base.values[t]).epsilon(1e-5));
+      if (factor >= 1e-150) CHECK(out.variance[t] / (factor * factor) == doctest::Approx(base.variance[t]).epsilon(1e-4));
+    }
+  }
+}
+
+TEST_CASE("99% missing: no crash, no NaN inside the observed span") {
+  const auto truth = kalman_test::invented_series(5000, 81, 0.2, 0.5);
+  const auto y = kalman_test::with_random_gaps(truth, 0.99, 82);
+  for (const std::string model : {"level", "trend"}) {
+    CAPTURE(model);
+    const auto out = run("model=" + model, y);
+    for (std::size_t t = 0; t < y.size(); ++t) {
+      CHECK(std::isfinite(out.values[t]));
+      CHECK(std::isfinite(out.variance[t]));
+    }
+  }
+}
+
+TEST_CASE("same input, same bytes") {
+  const auto y = kalman_test::with_random_gaps(kalman_test::invented_series(500, 91, 0.2, 0.5, 7, 1.0), 0.2, 92);
+  const auto a = run("model=seasonal", y, 7);
+  const auto b = run("model=seasonal", y, 7);
+  CHECK(std::equal(a.values.begin(), a.values.end(), b.values.begin(),
+                   [](double p, double q) { return std::memcmp(&p, &q, sizeof p) == 0; }));
+  CHECK(std::equal(a.variance.begin(), a.variance.end(), b.variance.begin(),
+                   [](double p, double q) { return std::memcmp(&p, &q, sizeof p) == 0; }));
+}

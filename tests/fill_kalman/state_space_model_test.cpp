@@ -1,0 +1,94 @@
+// The structured transition products agree with the dense matrices written
+// out from the model definitions, and the starting grid is a set of shares.
+#include <doctest/doctest.h>
+
+#include <numeric>
+
+#include "gapmark/fill/state_space.hpp"
+
+using gapmark::state_space::StructuralModel;
+
+namespace {
+
+std::vector<StructuralModel> models() {
+  return {StructuralModel::local_level(), StructuralModel::local_linear_trend(),
+          StructuralModel::basic_structural(2), StructuralModel::basic_structural(4),
+          StructuralModel::basic_structural(12)};
+}
+
+Eigen::MatrixXd sample(Eigen::Index rows, Eigen::Index cols, double seed) {
+  Eigen::MatrixXd a(rows, cols);
+  for (Eigen::Index i = 0; i < rows; ++i)
+    for (Eigen::Index j = 0; j < cols; ++j) a(i, j) = std::sin(seed + 1.7 * i + 0.37 * j * j);
+  return a;
+}
+
+}  // namespace
+
+TEST_CASE("structured T, T' and T^-1 products equal the dense definitions") {
+  for (const auto& model : models()) {
+    CAPTURE(model.name());
+    const auto m = static_cast<Eigen::Index>(model.state_dim());
+    const Eigen::MatrixXd t = model.transition_matrix();
+    const Eigen::MatrixXd a = sample(m, 3, 0.5);
+
+    Eigen::MatrixXd b = a;
+    model.transition(b);
+    CHECK((b - t * a).cwiseAbs().maxCoeff() < 1e-12);
+
+    b = a;
+    model.transition_transposed(b);
+    CHECK((b - t.transpose() * a).cwiseAbs().maxCoeff() < 1e-12);
+
+    b = a;
+    model.transition_inverse(b);
+    CHECK((t * b - a).cwiseAbs().maxCoeff() < 1e-12);
+  }
+}
+
+TEST_CASE("the dummy seasonal sums to zero over a period and the design picks level plus season") {
+  const auto model = StructuralModel::basic_structural(4);
+  const Eigen::MatrixXd t = model.transition_matrix();
+  // Seasonal block: the new effect is minus the sum of the last three.
+  CHECK(t(2, 2) == -1);
+  CHECK(t(2, 3) == -1);
+  CHECK(t(2, 4) == -1);
+  CHECK(t(3, 2) == 1);
+  CHECK(t(4, 3) == 1);
+  // Without disturbances the seasonal pattern repeats every 4 steps.
+  Eigen::MatrixXd power = Eigen::MatrixXd::Identity(5, 5);
+  for (int i = 0; i < 4; ++i) power = t * power;
+  CHECK((power.bottomRightCorner(3, 3) - Eigen::MatrixXd::Identity(3, 3)).cwiseAbs().maxCoeff() < 1e-12);
+  const Eigen::RowVectorXd z = model.design_row();
+  CHECK(z.sum() == 2);
+  CHECK(z(0) == 1);
+  CHECK(z(2) == 1);
+  CHECK(model.variance_names() == std::vector<std::string>{"irregular", "level", "slope", "seasonal"});
+  CHECK(model.disturbed_state(3) == 2);
+  CHECK_THROWS_AS(StructuralModel::basic_structural(1), std::invalid_argument);
+}
+
+TEST_CASE("the starting grid gives shares of the total variance that sum to one") {
+  for (const auto& model : models()) {
+    const auto starts = gapmark::state_space::fit_starts(model);
+    CHECK(starts.size() >= model.variance_count() + 1);
+    for (const auto& s : starts) {
+      REQUIRE(s.size() == model.variance_count());
+      CHECK(std::accumulate(s.begin(), s.end(), 0.0) == doctest::Approx(1.0));
+      for (double v : s) CHECK(v > 0);
+    }
+  }
+}
+
+TEST_CASE("standardise centres and scales without overflow") {
+  const double nan = std::numeric_limits<double>::quiet_NaN();
+  const std::vector<double> y{1e300, nan, -1e300, 1e300, -1e300};
+  const auto s = gapmark::state_space::standardise(y);
+  CHECK(s.observed == 4);
+  CHECK(s.centre == doctest::Approx(0.0));
+  CHECK(s.scale == doctest::Approx(1e300));
+  CHECK(s.z[0] == doctest::Approx(1.0));
+  CHECK(std::isnan(s.z[1]));
+  const std::vector<double> flat{3.5, nan, 3.5};
+  CHECK(gapmark::state_space::standardise(flat).scale == 0);
+}
