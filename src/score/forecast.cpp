@@ -1,0 +1,110 @@
+// Forecast effect: does the fill change how well the series can be forecast?
+// The last `holdout` points are never masked. The forecaster is fitted twice
+// on the training part (all but the holdout), once on the filled series and
+// once on the complete series, and each forecasts the first `horizon` points
+// of the holdout. Both are scored by MASE with ONE scale: the in-sample
+// seasonal naive MAE of the complete training series, so the two numbers and
+// their difference are on the same footing.
+//
+// Where the complete series has its own gaps, its training part takes the
+// filled series' values there (those points were not masked, so both fits
+// see the same values and differ only at the masked points). Holdout points
+// missing in the complete series are skipped when scoring.
+//
+// Not applicable (NaN, never an error): no holdout, a training part shorter
+// than two seasons (two points without a period), a filled training part
+// with points left empty, holt-winters without a period of at least 2, a
+// zero scale (a training part that repeats exactly), or a failed fit.
+#include <algorithm>
+#include <cmath>
+#include <limits>
+#include <string>
+
+#include "gapmark/forecast/holt_winters.hpp"
+#include "gapmark/forecast/mase.hpp"
+#include "gapmark/forecast/seasonal_naive.hpp"
+#include "gapmark/score/metric.hpp"
+
+namespace gapmark {
+namespace {
+
+enum class Model { SeasonalNaive, HoltWinters };
+
+std::vector<double> forecast_with(Model model, std::span<const double> train, std::size_t period,
+                                  std::size_t horizon) {
+  if (model == Model::SeasonalNaive) return forecast::seasonal_naive_forecast(train, period, horizon);
+  const auto fit = forecast::holt_winters_fit(train, period);
+  if (!fit) return {};
+  return forecast::holt_winters_forecast(fit->run.final_state, horizon);
+}
+
+class ForecastEffect final : public Metric {
+public:
+  ForecastEffect(Model model, std::size_t horizon) : model_(model), horizon_(horizon) {}
+
+  std::vector<MetricColumn> columns() const override {
+    return {{"mase_filled", "scaled error", Direction::Lower,
+             "MASE on the holdout of the forecaster trained on the filled series"},
+            {"mase_complete", "scaled error", Direction::Lower,
+             "MASE on the holdout of the forecaster trained on the complete series"},
+            {"mase_cost", "scaled error", Direction::Lower,
+             "mase_filled minus mase_complete: positive when the fill hurt the forecast"}};
+  }
+
+  void compute(const ScoreInput& in, std::span<double> out) const override {
+    std::fill(out.begin(), out.end(), std::numeric_limits<double>::quiet_NaN());
+    const std::size_t n = in.truth.size();
+    if (in.filled.size() != n || in.holdout == 0 || in.holdout >= n) return;
+    const std::size_t train_n = n - in.holdout;
+    const std::size_t m = forecast::naive_lag(in.period);
+    if (model_ == Model::HoltWinters && in.period < 2) return;
+    if (train_n < 2 * m) return;
+
+    std::vector<double> filled(in.filled.begin(), in.filled.begin() + static_cast<std::ptrdiff_t>(train_n));
+    for (double v : filled)
+      if (!std::isfinite(v)) return;  // left unfilled
+    std::vector<double> complete(in.truth.begin(), in.truth.begin() + static_cast<std::ptrdiff_t>(train_n));
+    for (std::size_t t = 0; t < train_n; ++t)
+      if (std::isnan(complete[t])) complete[t] = filled[t];
+
+    const std::size_t horizon = horizon_ ? std::min(horizon_, in.holdout) : in.holdout;
+    const auto actual = in.truth.subspan(train_n, horizon);
+    const double scale = forecast::seasonal_naive_scale(complete, in.period);
+
+    const auto from_filled = forecast_with(model_, filled, in.period, horizon);
+    const auto from_complete = forecast_with(model_, complete, in.period, horizon);
+    if (from_filled.size() == horizon) out[0] = forecast::mase(actual, from_filled, scale);
+    if (from_complete.size() == horizon) out[1] = forecast::mase(actual, from_complete, scale);
+    out[2] = out[0] - out[1];  // NaN when either is
+  }
+
+private:
+  Model model_;
+  std::size_t horizon_;
+};
+
+const Registration<Metric> registration{{
+    .name = "forecast",
+    .summary = "forecast effect on the holdout: mase_filled, mase_complete, mase_cost",
+    .params = {{.name = "model",
+                .type = ParamType::Choice,
+                .default_value = "holt-winters",
+                .min = 0,
+                .max = 0,
+                .choices = {"holt-winters", "seasonal-naive"},
+                .help = "forecaster: additive Holt-Winters (needs a period) or seasonal naive"},
+               {.name = "horizon",
+                .type = ParamType::Integer,
+                .default_value = "0",
+                .min = 0,
+                .max = 1e9,
+                .choices = {},
+                .help = "points forecast, at most the holdout; 0 = the whole holdout"}},
+    .make = [](const ParamValues& p) {
+      const Model model = p.text("model") == "seasonal-naive" ? Model::SeasonalNaive : Model::HoltWinters;
+      return std::make_unique<ForecastEffect>(model, static_cast<std::size_t>(p.integer("horizon")));
+    },
+}};
+
+}  // namespace
+}  // namespace gapmark
