@@ -20,7 +20,7 @@ struct MaskRequest {
   std::size_t period = 0;          ///< seasonal period, 0 = none
   std::size_t holdout = 0;         ///< last points never masked
   double rate = 0.1;               ///< target fraction of eligible points to hide, in (0, 1)
-  std::string where;               ///< names the task in errors ("demo.json: /schemes/1, series 'x'"); may be empty
+  std::string where = {};          ///< names the task in errors ("demo.json: /schemes/1, series 'x'"); may be empty
 };
 
 /// 1 where a point is hidden, 0 elsewhere; the length of the series.
