@@ -27,27 +27,42 @@ std::optional<HoltWintersState> holt_winters_initial_state(std::span<const doubl
   return s;
 }
 
-HoltWintersRun holt_winters_filter(std::span<const double> y, const HoltWintersSmoothing& p,
-                                   const HoltWintersState& initial) {
-  const std::size_t m = initial.season.size();
-  HoltWintersRun run;
-  run.fitted.resize(y.size());
-  // Ring buffer: slot t mod m holds s_{t-m} when point t is processed.
-  std::vector<double> ring = initial.season;
-  double level = initial.level, trend = initial.trend, sse = 0;
+namespace {
+
+/// The recursions; `fitted` may be null when only the SSE and final state
+/// are wanted (the optimiser's inner loop). The ring buffer's slot j holds
+/// s_{t-m} when point t is processed.
+double run_recursions(std::span<const double> y, const HoltWintersSmoothing& p, std::vector<double>& ring,
+                      double& level, double& trend, double* fitted) {
+  const std::size_t m = ring.size();
+  double sse = 0;
+  std::size_t j = 0;
   for (std::size_t t = 0; t < y.size(); ++t) {
-    double& season = ring[t % m];
+    double& season = ring[j];
     const double base = level + trend;
     const double forecast = base + season;
-    run.fitted[t] = forecast;
+    if (fitted) fitted[t] = forecast;
     const double error = y[t] - forecast;
     sse += error * error;
     const double new_level = p.alpha * (y[t] - season) + (1 - p.alpha) * base;
     trend = p.beta * (new_level - level) + (1 - p.beta) * trend;
     season = p.gamma * (y[t] - base) + (1 - p.gamma) * season;
     level = new_level;
+    if (++j == m) j = 0;
   }
-  run.sse = sse;
+  return sse;
+}
+
+}  // namespace
+
+HoltWintersRun holt_winters_filter(std::span<const double> y, const HoltWintersSmoothing& p,
+                                   const HoltWintersState& initial) {
+  const std::size_t m = initial.season.size();
+  HoltWintersRun run;
+  run.fitted.resize(y.size());
+  std::vector<double> ring = initial.season;
+  double level = initial.level, trend = initial.trend;
+  run.sse = run_recursions(y, p, ring, level, trend, run.fitted.data());
   run.final_state.level = level;
   run.final_state.trend = trend;
   run.final_state.season.resize(m);
@@ -68,15 +83,18 @@ namespace {
 struct Problem {
   std::span<const double> y;
   const HoltWintersState* initial;
+  std::vector<double> ring;  // scratch, reused by every evaluation
 };
 
-double sse_of(const std::vector<double>& x, const Problem& problem) {
-  const HoltWintersRun run = holt_winters_filter(problem.y, {x[0], x[1], x[2]}, *problem.initial);
-  return std::isfinite(run.sse) ? run.sse : std::numeric_limits<double>::max();
+double sse_of(const std::vector<double>& x, Problem& problem) {
+  problem.ring = problem.initial->season;
+  double level = problem.initial->level, trend = problem.initial->trend;
+  const double sse = run_recursions(problem.y, {x[0], x[1], x[2]}, problem.ring, level, trend, nullptr);
+  return std::isfinite(sse) ? sse : std::numeric_limits<double>::max();
 }
 
 double objective(const std::vector<double>& x, std::vector<double>& /*grad*/, void* data) {
-  return sse_of(x, *static_cast<const Problem*>(data));
+  return sse_of(x, *static_cast<Problem*>(data));
 }
 
 }  // namespace
@@ -86,7 +104,7 @@ std::optional<HoltWintersModel> holt_winters_fit(std::span<const double> y, std:
     if (!std::isfinite(v)) return std::nullopt;
   auto initial = holt_winters_initial_state(y, period);
   if (!initial) return std::nullopt;
-  Problem problem{y, &*initial};
+  Problem problem{y, &*initial, {}};
 
   // A fixed coarse grid picks the starting point (the SSE surface can have
   // more than one basin); BOBYQA then refines it inside the unit box.
