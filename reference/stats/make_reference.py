@@ -237,6 +237,123 @@ for k, df, q in [(2, None, 1.0), (3, None, 2.5), (4, None, 3.0), (6, None, 4.5),
     tukey_cdf.append({"name": name, "k": k, "df": df, "q": q, "scipy_cdf": cdf})
     rb.add("ptukey", name, k, "Inf" if df is None else df, [], q)
 
+# ---------------------------------------------------------------- summary wiring
+# Trial tables for the ranking in src/experiment/summary.cpp, computed here
+# with scipy and statsmodels under the library's stated conventions:
+#  - within a replicate, lower rmse ranks first, ties averaged, a trial with
+#    no value ranks after every value (ties among such);
+#  - the best method has the lowest mean rmse over its replicates with a value;
+#  - each other method: Wilcoxon signed-rank on (method - best) over the
+#    replicates where both have a value; exact p (scipy default) when n <= 50
+#    with no zero and no tied |d|, else wilcoxon(mode="approx", correction=False);
+#    Holm over the k - 1 comparisons (statsmodels multipletests);
+#  - Friedman over replicates on the table with "no value" as +inf
+#    (scipy.stats.friedmanchisquare);
+#  - across series: each (series, scheme, rate) a data set, methods ranked by
+#    mean rmse (scipy.stats.rankdata), Friedman on those means, Iman-Davenport
+#    with scipy.stats.f.sf, critical difference from scipy.stats.studentized_range.
+
+
+def wilcoxon_p(d):
+    d = np.asarray(d, dtype=float)
+    nonzero = d[d != 0]
+    if len(nonzero) == 0:
+        return 1.0
+    ties = len(np.unique(np.abs(nonzero))) < len(nonzero)
+    if len(d) <= 50 and not ties and len(nonzero) == len(d):
+        return float(st.wilcoxon(d).pvalue)
+    return float(st.wilcoxon(d, mode="approx", correction=False).pvalue)
+
+
+def group_reference(table, alpha):
+    """table: replicates x methods rmse (NaN = failed)."""
+    reps, k = table.shape
+    keyed = np.where(np.isnan(table), np.inf, table)
+    ranks = np.vstack([st.rankdata(row, method="average") for row in keyed])
+    means = np.array([np.mean(table[~np.isnan(table[:, m]), m]) for m in range(k)])
+    best = int(np.argmin(means))
+    raw = []
+    others = [m for m in range(k) if m != best]
+    for m in others:
+        both = ~np.isnan(table[:, m]) & ~np.isnan(table[:, best])
+        raw.append(wilcoxon_p(table[both, m] - table[both, best]))
+    adjusted = multipletests(raw, method="holm")[1]
+    stat, p = st.friedmanchisquare(*[keyed[:, m] for m in range(k)])
+    out = {"best": best, "mean_rank": [float(v) for v in ranks.mean(axis=0)],
+           "mean": [float(v) for v in means], "p_vs_best": [None] * k, "tied_with_best": [True] * k,
+           "friedman_statistic": float(stat), "friedman_p": float(p)}
+    for m, raw_p, adj in zip(others, raw, adjusted):
+        out["p_vs_best"][m] = float(adj)
+        out["tied_with_best"][m] = bool(adj >= alpha)
+    return out
+
+
+def across_reference(means, alpha):
+    """means: data sets x methods of mean rmse."""
+    n, k = means.shape
+    ranks = np.vstack([st.rankdata(row, method="average") for row in means])
+    stat, p = st.friedmanchisquare(*[means[:, m] for m in range(k)])
+    ff = (n - 1) * stat / (n * (k - 1) - stat)
+    q = float(st.studentized_range.ppf(1 - alpha, k, np.inf))
+    return {"datasets": n, "mean_ranks": [float(v) for v in ranks.mean(axis=0)],
+            "friedman_chi2": float(stat), "friedman_p": float(p),
+            "iman_davenport_f": float(ff),
+            "iman_davenport_p": float(st.f.sf(ff, k - 1, (k - 1) * (n - 1))),
+            "critical_difference": q / math.sqrt(2) * math.sqrt(k * (k + 1) / (6.0 * n))}
+
+
+SUMMARY_ALPHA = 0.05
+summary_methods = ["m_a", "m_b", "m_c", "m_d"]
+summary_trials = []
+
+
+def add_trials(series, scheme, rate, table):
+    for r in range(table.shape[0]):
+        for m, method in enumerate(summary_methods):
+            v = table[r, m]
+            summary_trials.append({"series": series, "scheme": scheme, "rate": rate, "replicate": r,
+                                   "method": method, "status": "failed" if np.isnan(v) else "ok",
+                                   "rmse": num(v)})
+
+
+# One group, ten replicates: m_c clearly worse, m_b slightly worse, m_d the
+# best plus small rounded noise (zero differences and ties), one failed trial.
+reps = 10
+difficulty = rng.uniform(1.0, 2.0, size=reps)
+group_table = np.column_stack([
+    difficulty + rng.normal(0, 0.05, reps),
+    difficulty + 0.04 + rng.normal(0, 0.05, reps),
+    difficulty + 0.30 + rng.normal(0, 0.05, reps),
+    np.zeros(reps)])
+group_table[:, 3] = group_table[:, 0] + np.round(rng.normal(0, 0.02, reps), 2)
+group_table[4, 2] = np.nan
+add_trials("series_one", "scheme_x", 0.2, group_table)
+group_expected = group_reference(group_table, SUMMARY_ALPHA)
+
+# Across series: five series at two rates, three replicates each; in series
+# s3 methods m_a and m_d give identical values (a tie across data sets).
+across_means = {}
+for rate, scale in ((0.1, 1.0), (0.3, 2.0)):
+    rows = []
+    for s_i in range(5):
+        series = "s%d" % (s_i + 1)
+        base = rng.uniform(0.5, 3.0)
+        table = np.column_stack([base + scale * eff + rng.normal(0, 0.1, 3)
+                                 for eff in (0.0, 0.1, 0.4, 0.05)])
+        if series == "s3":
+            table[:, 3] = table[:, 0]
+        add_trials(series, "scheme_y", rate, table)
+        rows.append(table.mean(axis=0))
+    across_means[rate] = np.array(rows)
+across_expected = {
+    "scheme_y@0.1": across_reference(across_means[0.1], SUMMARY_ALPHA),
+    "scheme_y@0.3": across_reference(across_means[0.3], SUMMARY_ALPHA),
+    "pooled": across_reference(np.vstack([across_means[0.1], across_means[0.3]]), SUMMARY_ALPHA),
+}
+summary_doc = {"alpha": SUMMARY_ALPHA, "methods": summary_methods, "trials": summary_trials,
+               "group": {"series": "series_one", "scheme": "scheme_x", "rate": 0.2, **group_expected},
+               "across": across_expected}
+
 # ---------------------------------------------------------------- run R and write
 r = rb.run()
 for case in t_cases:
@@ -275,4 +392,10 @@ write("studentized_range.json",
       "the infinite-df integral) and R qtukey / ptukey (df = Inf). R documents qtukey as a "
       "secant search with tolerance 1e-4, so its quantiles are coarse.",
       {"quantiles": tukey_quantiles, "cdf": tukey_cdf})
-print("wrote ranks, t_interval, friedman, wilcoxon, holm, studentized_range JSON to", HERE)
+write("summary.json",
+      "Ranking in summarize(): trial records and the expected per-group ranks, Friedman, Wilcoxon "
+      "against the best with Holm, and across-series mean ranks, Friedman, Iman-Davenport and "
+      "critical difference, from scipy.stats (rankdata, friedmanchisquare, wilcoxon, f, "
+      "studentized_range) and statsmodels multipletests under the conventions stated in "
+      "make_reference.py.", summary_doc)
+print("wrote ranks, t_interval, friedman, wilcoxon, holm, studentized_range, summary JSON to", HERE)

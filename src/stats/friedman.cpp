@@ -72,6 +72,29 @@ FriedmanResult friedman(std::span<const double> values, std::size_t blocks,
   return r;
 }
 
+ImanDavenport iman_davenport(double chi2, std::size_t treatments, std::size_t blocks) {
+  ImanDavenport r;
+  const double n = static_cast<double>(blocks);
+  const double k = static_cast<double>(treatments);
+  r.df1 = treatments >= 2 ? k - 1 : kNaN;
+  r.df2 = treatments >= 2 && blocks >= 1 ? (k - 1) * (n - 1) : kNaN;
+  if (treatments < 2 || blocks < 2 || std::isnan(chi2)) {
+    r.f = r.p = kNaN;
+    return r;
+  }
+  const double denom = n * (k - 1) - chi2;
+  // chi2 reaches N (k - 1) when all blocks agree; allow for rounding there.
+  if (denom <= 1e-12 * n * (k - 1)) {
+    r.f = std::numeric_limits<double>::infinity();
+    r.p = 0;
+    return r;
+  }
+  r.f = (n - 1) * chi2 / denom;
+  r.p = r.f <= 0 ? 1.0
+                 : boost::math::cdf(boost::math::complement(boost::math::fisher_f(r.df1, r.df2), r.f));
+  return r;
+}
+
 FriedmanFromRanks friedman_from_mean_ranks(std::span<const double> mean_ranks,
                                            std::size_t blocks) {
   FriedmanFromRanks r;
@@ -87,23 +110,11 @@ FriedmanFromRanks friedman_from_mean_ranks(std::span<const double> mean_ranks,
   r.chi2 = 12.0 * n / (k * (k + 1)) * (ssr - k * (k + 1) * (k + 1) / 4.0);
   r.chi2_df = k - 1;
   r.chi2_p = chi2_upper(r.chi2, r.chi2_df);
-  r.f_df1 = k - 1;
-  r.f_df2 = (k - 1) * (n - 1);
-  if (blocks < 2 || !std::isfinite(r.chi2)) {
-    r.f = r.f_p = kNaN;
-    return r;
-  }
-  const double denom = n * (k - 1) - r.chi2;
-  // chi2_F reaches N (k - 1) when all blocks agree; allow for rounding there.
-  if (denom <= 1e-12 * n * (k - 1)) {
-    r.f = std::numeric_limits<double>::infinity();
-    r.f_p = 0;
-    return r;
-  }
-  r.f = (n - 1) * r.chi2 / denom;
-  r.f_p = r.f <= 0 ? 1.0
-                   : boost::math::cdf(boost::math::complement(
-                         boost::math::fisher_f(r.f_df1, r.f_df2), r.f));
+  const auto id = iman_davenport(r.chi2, kk, blocks);
+  r.f = id.f;
+  r.f_df1 = id.df1;
+  r.f_df2 = id.df2;
+  r.f_p = id.p;
   return r;
 }
 

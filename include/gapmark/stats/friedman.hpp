@@ -22,6 +22,16 @@ struct FriedmanResult {
 FriedmanResult friedman(std::span<const double> values, std::size_t blocks,
                         std::size_t treatments);
 
+struct ImanDavenport {
+  double f = 0, df1 = 0, df2 = 0, p = 0;
+};
+
+/// The Iman-Davenport statistic from a Friedman chi-squared over N blocks and
+/// k treatments: F_F = (N - 1) chi2 / (N (k - 1) - chi2), df (k - 1, (k - 1)(N - 1)),
+/// p from the upper tail of F. When chi2 reaches N (k - 1) (every block ranks
+/// the treatments alike), F_F = +inf and p = 0. NaN when N < 2, k < 2 or chi2 is NaN.
+ImanDavenport iman_davenport(double chi2, std::size_t treatments, std::size_t blocks);
+
 struct FriedmanFromRanks {
   double chi2 = 0, chi2_df = 0, chi2_p = 0;  ///< Friedman chi-squared, df = k - 1
   double f = 0, f_df1 = 0, f_df2 = 0, f_p = 0;  ///< Iman-Davenport F, df (k-1, (k-1)(N-1))

@@ -1,0 +1,241 @@
+// The statistics wired into summarize(): per-group ranks, Friedman, Wilcoxon
+// against the best with Holm's correction, and the across-series comparison.
+#include <cmath>
+#include <doctest/doctest.h>
+#include <string>
+#include <vector>
+
+#include "gapmark/experiment/summary.hpp"
+#include "reference_values.hpp"
+
+namespace {
+
+gapmark::ResultSet results_from(const nlohmann::json& doc, const std::string& only_series = "") {
+  gapmark::ResultSet rs;
+  rs.columns = {gapmark::MetricColumn{"rmse", "value", gapmark::Direction::Lower, "root mean squared error"}};
+  rs.rank_by = "rmse";
+  rs.alpha = doc["alpha"].get<double>();
+  for (const auto& t : doc["trials"]) {
+    if (!only_series.empty() && t["series"] != only_series) continue;
+    gapmark::TrialRecord r;
+    r.series = t["series"].get<std::string>();
+    r.scheme = t["scheme"].get<std::string>();
+    r.rate = t["rate"].get<double>();
+    r.replicate = t["replicate"].get<int>();
+    r.method = t["method"].get<std::string>();
+    r.status = t["status"].get<std::string>();
+    r.metrics = {stats_test::number(t["rmse"])};
+    rs.trials.push_back(r);
+  }
+  return rs;
+}
+
+gapmark::TrialRecord trial(const std::string& method, int replicate, double value,
+                           const std::string& series = "s") {
+  gapmark::TrialRecord r;
+  r.series = series;
+  r.scheme = "scheme_z";
+  r.rate = 0.1;
+  r.replicate = replicate;
+  r.method = method;
+  r.status = std::isnan(value) ? "failed" : "ok";
+  r.metrics = {value};
+  return r;
+}
+
+std::size_t index_of(const std::vector<std::string>& names, const std::string& name) {
+  for (std::size_t i = 0; i < names.size(); ++i)
+    if (names[i] == name) return i;
+  FAIL("no method " << name);
+  return 0;
+}
+
+}  // namespace
+
+// Source: reference/stats/summary.json, made by reference/stats/make_reference.py
+// with scipy.stats (rankdata, friedmanchisquare, wilcoxon, f, studentized_range)
+// and statsmodels multipletests(method="holm") under the conventions written
+// there. Tolerances: ranks and means 1e-12 relative, statistics 1e-10,
+// p-values and the critical difference 1e-8.
+TEST_CASE("one group: ranks, Friedman over replicates, Wilcoxon against the best with Holm") {
+  const auto ref = stats_test::load_reference("summary.json")["cases"];
+  const auto summary = gapmark::summarize(results_from(ref));
+  const auto methods = ref["methods"].get<std::vector<std::string>>();
+  const auto& e = ref["group"];
+  const gapmark::CellGroup* g = nullptr;
+  for (const auto& candidate : summary.groups)
+    if (candidate.series == e["series"].get<std::string>()) g = &candidate;
+  REQUIRE(g != nullptr);
+  CHECK(g->replicates == 10);
+  REQUIRE(g->methods.size() == methods.size());
+  CHECK(g->methods.front().method == methods[e["best"].get<std::size_t>()]);
+  CHECK_CLOSE(g->friedman_statistic, e["friedman_statistic"].get<double>(), 1e-10, 0);
+  CHECK_CLOSE(g->friedman_p, e["friedman_p"].get<double>(), 1e-8, 0);
+  std::size_t tied = 0, not_tied = 0;
+  for (const auto& m : g->methods) {
+    INFO("method " << m.method);
+    const std::size_t i = index_of(methods, m.method);
+    CHECK_CLOSE(m.mean_rank, e["mean_rank"][i].get<double>(), 1e-12, 0);
+    CHECK_CLOSE(m.metrics[0].mean, e["mean"][i].get<double>(), 1e-12, 0);
+    CHECK_CLOSE(m.p_vs_best, stats_test::number(e["p_vs_best"][i]), 1e-8, 0);
+    CHECK(m.tied_with_best == e["tied_with_best"][i].get<bool>());
+    (m.tied_with_best ? tied : not_tied)++;
+  }
+  // The stored case exercises both outcomes and a failed trial.
+  CHECK(tied >= 2);
+  CHECK(not_tied >= 1);
+  CHECK(g->methods.back().failures == 1);
+}
+
+// Source: as above (reference/stats/summary.json, "across").
+TEST_CASE("across series: per condition and pooled mean ranks, Friedman, Iman-Davenport, CD") {
+  const auto ref = stats_test::load_reference("summary.json")["cases"];
+  const auto summary = gapmark::summarize(results_from(ref));
+  // Conditions: scheme_x@0.2 (one series), scheme_y@0.1, scheme_y@0.3, then pooled.
+  REQUIRE(summary.across.size() == 4);
+  CHECK(summary.across[0].scheme == "scheme_x");
+  CHECK(summary.across[0].datasets == 1);
+  CHECK(std::isnan(summary.across[0].iman_davenport_f));  // needs two data sets
+  CHECK(summary.across.back().scheme.empty());
+  for (const auto& a : summary.across) {
+    std::string key = a.scheme.empty() ? "pooled" : a.scheme + "@" + (a.rate == 0.1 ? "0.1" : "0.3");
+    if (a.scheme == "scheme_x") continue;
+    INFO("condition " << key);
+    REQUIRE(ref["across"].contains(key));
+    const auto& e = ref["across"][key];
+    // Pooled adds the scheme_x group to the ten scheme_y data sets; the stored
+    // pooled values cover the scheme_y groups only, so compare pooled on a
+    // summary without scheme_x below.
+    if (key == "pooled") continue;
+    CHECK(a.datasets == e["datasets"].get<std::size_t>());
+    const auto methods = ref["methods"].get<std::vector<std::string>>();
+    REQUIRE(a.methods.size() == methods.size());
+    for (std::size_t i = 0; i < a.methods.size(); ++i)
+      CHECK_CLOSE(a.mean_ranks[i], e["mean_ranks"][index_of(methods, a.methods[i])].get<double>(), 1e-12, 0);
+    CHECK_CLOSE(a.friedman_chi2, e["friedman_chi2"].get<double>(), 1e-10, 0);
+    CHECK_CLOSE(a.friedman_p, e["friedman_p"].get<double>(), 1e-8, 0);
+    CHECK_CLOSE(a.iman_davenport_f, e["iman_davenport_f"].get<double>(), 1e-8, 0);
+    CHECK_CLOSE(a.iman_davenport_p, e["iman_davenport_p"].get<double>(), 1e-8, 0);
+    CHECK_CLOSE(a.critical_difference, e["critical_difference"].get<double>(), 1e-8, 0);
+  }
+}
+
+TEST_CASE("across series pooled over the scheme_y conditions") {
+  auto doc = stats_test::load_reference("summary.json")["cases"];
+  nlohmann::json trials = nlohmann::json::array();
+  for (const auto& t : doc["trials"])
+    if (t["scheme"] == "scheme_y") trials.push_back(t);
+  doc["trials"] = trials;
+  const auto summary = gapmark::summarize(results_from(doc));
+  REQUIRE(summary.across.size() == 3);
+  const auto& a = summary.across.back();
+  const auto& e = doc["across"]["pooled"];
+  CHECK(a.scheme.empty());
+  CHECK(a.datasets == 10);
+  const auto methods = doc["methods"].get<std::vector<std::string>>();
+  for (std::size_t i = 0; i < a.methods.size(); ++i)
+    CHECK_CLOSE(a.mean_ranks[i], e["mean_ranks"][index_of(methods, a.methods[i])].get<double>(), 1e-12, 0);
+  CHECK_CLOSE(a.friedman_chi2, e["friedman_chi2"].get<double>(), 1e-10, 0);
+  CHECK_CLOSE(a.friedman_p, e["friedman_p"].get<double>(), 1e-8, 0);
+  CHECK_CLOSE(a.iman_davenport_f, e["iman_davenport_f"].get<double>(), 1e-8, 0);
+  CHECK_CLOSE(a.iman_davenport_p, e["iman_davenport_p"].get<double>(), 1e-8, 0);
+  CHECK_CLOSE(a.critical_difference, e["critical_difference"].get<double>(), 1e-8, 0);
+}
+
+TEST_CASE("one condition only: no pooled entry") {
+  const auto ref = stats_test::load_reference("summary.json")["cases"];
+  const auto summary = gapmark::summarize(results_from(ref, "series_one"));
+  REQUIRE(summary.across.size() == 1);
+  CHECK(summary.across[0].scheme == "scheme_x");
+}
+
+TEST_CASE("closer to zero is better: ranks use the absolute value") {
+  gapmark::ResultSet rs;
+  rs.columns = {gapmark::MetricColumn{"bias", "value", gapmark::Direction::ZeroBest, "mean error"}};
+  rs.rank_by = "bias";
+  // a: about -0.1, b: about +0.5, c: about -1.0 in every replicate: by |bias| a < b < c.
+  for (int r = 0; r < 7; ++r) {
+    rs.trials.push_back(trial("a", r, -0.1 - 0.01 * r));
+    rs.trials.push_back(trial("b", r, 0.5 + 0.011 * r));
+    rs.trials.push_back(trial("c", r, -1.0 - 0.013 * r));
+  }
+  const auto summary = gapmark::summarize(rs);
+  REQUIRE(summary.groups.size() == 1);
+  const auto& g = summary.groups[0];
+  REQUIRE(g.methods.size() == 3);
+  CHECK(g.methods[0].method == "a");
+  CHECK(g.methods[0].mean_rank == 1.0);
+  CHECK(g.methods[1].method == "b");
+  CHECK(g.methods[1].mean_rank == 2.0);
+  CHECK(g.methods[2].mean_rank == 3.0);
+  // Friedman with perfect agreement: N (k - 1) = 14; chi-squared with 2 df
+  // has upper tail exp(-x/2) = exp(-7).
+  CHECK(g.friedman_statistic == doctest::Approx(14.0));
+  CHECK(g.friedman_p == doctest::Approx(std::exp(-7.0)).epsilon(1e-12));
+  // Seven replicates all one way: exact p = 2 / 2^7 = 1/64 each; Holm gives
+  // 2/64 to the smaller, then the running maximum: both 1/32 < 0.05.
+  CHECK(std::isnan(g.methods[0].p_vs_best));
+  CHECK(g.methods[0].tied_with_best);
+  CHECK(g.methods[1].p_vs_best == doctest::Approx(1.0 / 32));
+  CHECK(g.methods[2].p_vs_best == doctest::Approx(1.0 / 32));
+  CHECK_FALSE(g.methods[1].tied_with_best);
+  CHECK_FALSE(g.methods[2].tied_with_best);
+}
+
+TEST_CASE("few replicates cannot separate methods: six replicates, two comparisons") {
+  // Exact two-sided p with n = 6 all one way is 2/64; Holm doubles the
+  // smaller of two: 1/16 >= 0.05, so both stay tied with the best.
+  gapmark::ResultSet rs;
+  rs.columns = {gapmark::MetricColumn{"rmse", "value", gapmark::Direction::Lower, ""}};
+  for (int r = 0; r < 6; ++r) {
+    rs.trials.push_back(trial("a", r, 1.0 + 0.01 * r));
+    rs.trials.push_back(trial("b", r, 2.0 + 0.02 * r));
+    rs.trials.push_back(trial("c", r, 3.0 + 0.03 * r));
+  }
+  const auto g = gapmark::summarize(rs).groups.at(0);
+  CHECK(g.methods[1].p_vs_best == doctest::Approx(1.0 / 16));
+  CHECK(g.methods[2].p_vs_best == doctest::Approx(1.0 / 16));
+  CHECK(g.methods[1].tied_with_best);
+  CHECK(g.methods[2].tied_with_best);
+}
+
+TEST_CASE("failures: rank last within the replicate; a method with no value is not tied") {
+  gapmark::ResultSet rs;
+  rs.columns = {gapmark::MetricColumn{"rmse", "value", gapmark::Direction::Lower, ""}};
+  const double nan = std::nan("");
+  for (int r = 0; r < 8; ++r) {
+    rs.trials.push_back(trial("good", r, 1.0 + 0.01 * r));
+    rs.trials.push_back(trial("flaky", r, r == 2 ? nan : 1.5 + 0.02 * r));
+    rs.trials.push_back(trial("broken", r, nan));
+  }
+  const auto g = gapmark::summarize(rs).groups.at(0);
+  REQUIRE(g.methods.size() == 3);
+  CHECK(g.methods[0].method == "good");
+  CHECK(g.methods[1].method == "flaky");
+  CHECK(g.methods[2].method == "broken");
+  // In replicate 2 flaky and broken share ranks 2 and 3: 2.5 each.
+  CHECK(g.methods[1].mean_rank == doctest::Approx((7 * 2.0 + 2.5) / 8));
+  CHECK(g.methods[2].mean_rank == doctest::Approx((7 * 3.0 + 2.5) / 8));
+  CHECK(g.methods[1].failures == 1);
+  CHECK(g.methods[2].failures == 8);
+  // flaky: seven pairs, all worse: raw p 2/128; the only finite test, so Holm keeps it.
+  CHECK(g.methods[1].p_vs_best == doctest::Approx(2.0 / 128));
+  CHECK_FALSE(g.methods[1].tied_with_best);
+  CHECK(std::isnan(g.methods[2].p_vs_best));
+  CHECK_FALSE(g.methods[2].tied_with_best);
+  CHECK(std::isfinite(g.friedman_p));
+}
+
+TEST_CASE("identical results: p = 1 and tied with the best") {
+  gapmark::ResultSet rs;
+  rs.columns = {gapmark::MetricColumn{"rmse", "value", gapmark::Direction::Lower, ""}};
+  for (int r = 0; r < 8; ++r) {
+    rs.trials.push_back(trial("first", r, 1.0 + 0.1 * r));
+    rs.trials.push_back(trial("twin", r, 1.0 + 0.1 * r));
+  }
+  const auto g = gapmark::summarize(rs).groups.at(0);
+  CHECK(g.methods[1].p_vs_best == 1.0);
+  CHECK(g.methods[1].tied_with_best);
+  CHECK(g.methods[0].mean_rank == 1.5);
+  CHECK(std::isnan(g.friedman_statistic));  // every replicate tied throughout
+}
