@@ -19,7 +19,7 @@ expect_fail 2 "unknown parameter 'edge'" -- "$GAPMARK" fill "$DATA" --method lin
 expect_fail 2 "unknown scheme 'randm'" -- "$GAPMARK" mask "$DATA" --scheme randm:rate=0.1 --out x.csv
 expect_fail 2 "rate 1.5 is outside \(0, 1\)" -- "$GAPMARK" mask "$DATA" --scheme random:rate=1.5 --out x.csv
 expect_fail 2 "give the rate" -- "$GAPMARK" mask "$DATA" --scheme random --out x.csv
-expect_fail 2 "no column 'oxygen'" -- "$GAPMARK" fill "$DATA" --column oxygen --method linear --out x.csv
+expect_fail 2 "no column named 'oxygen'" -- "$GAPMARK" fill "$DATA" --column oxygen --method linear --out x.csv
 check "no output written on failure" test ! -e x.csv
 
 # experiment specs
