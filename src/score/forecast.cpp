@@ -6,9 +6,12 @@
 // seasonal naive MAE of the complete training series, so the two numbers and
 // their difference are on the same footing.
 //
-// Where the complete series has its own gaps, its training part takes the
-// filled series' values there (those points were not masked, so both fits
-// see the same values and differ only at the masked points). Holdout points
+// Where the complete series has its own gaps (points nobody knows), both
+// training parts get the same stand-in values there: linear interpolation
+// between the nearest observed neighbours, the nearest observed value at the
+// ends. The method's own guesses at those points are not used, so the two
+// fits differ only at the masked points, mase_complete is the same for every
+// method of a trial, and a perfect fill costs exactly 0. Holdout points
 // missing in the complete series are skipped when scoring.
 //
 // Not applicable (NaN, never an error): no holdout, a training part shorter
@@ -29,6 +32,27 @@ namespace gapmark {
 namespace {
 
 enum class Model { SeasonalNaive, HoltWinters };
+
+/// Positions of the NaNs in `x`, and `x` with them replaced by linear
+/// interpolation (nearest observed value beyond the first or last observed
+/// point). False when nothing in `x` is observed.
+bool bridge_gaps(std::vector<double>& x, std::vector<std::size_t>& gaps) {
+  gaps.clear();
+  std::size_t last = x.size();  // last observed position seen, x.size() = none yet
+  for (std::size_t t = 0; t < x.size(); ++t) {
+    if (std::isnan(x[t])) {
+      gaps.push_back(t);
+      continue;
+    }
+    const std::size_t from = last == x.size() ? 0 : last + 1;
+    for (std::size_t g = from; g < t; ++g)
+      x[g] = last == x.size() ? x[t] : x[last] + (x[t] - x[last]) * double(g - last) / double(t - last);
+    last = t;
+  }
+  if (last == x.size()) return false;
+  for (std::size_t g = last + 1; g < x.size(); ++g) x[g] = x[last];
+  return true;
+}
 
 std::vector<double> forecast_with(Model model, std::span<const double> train, std::size_t period,
                                   std::size_t horizon) {
@@ -60,12 +84,13 @@ public:
     if (model_ == Model::HoltWinters && in.period < 2) return;
     if (train_n < 2 * m) return;
 
-    std::vector<double> filled(in.filled.begin(), in.filled.begin() + static_cast<std::ptrdiff_t>(train_n));
-    for (double v : filled)
-      if (!std::isfinite(v)) return;  // left unfilled
     std::vector<double> complete(in.truth.begin(), in.truth.begin() + static_cast<std::ptrdiff_t>(train_n));
-    for (std::size_t t = 0; t < train_n; ++t)
-      if (std::isnan(complete[t])) complete[t] = filled[t];
+    std::vector<std::size_t> own_gaps;
+    if (!bridge_gaps(complete, own_gaps)) return;
+    std::vector<double> filled(in.filled.begin(), in.filled.begin() + static_cast<std::ptrdiff_t>(train_n));
+    for (std::size_t t : own_gaps) filled[t] = complete[t];
+    for (double v : filled)
+      if (!std::isfinite(v)) return;  // a masked point left unfilled
 
     const std::size_t horizon = horizon_ ? std::min(horizon_, in.holdout) : in.holdout;
     const auto actual = in.truth.subspan(train_n, horizon);

@@ -242,19 +242,52 @@ TEST_CASE("forecast metric writes NaN (n/a) where it does not apply, and never t
   CHECK(all_nan(run("forecast:model=seasonal-naive", k.input())));
 }
 
-TEST_CASE("forecast metric: the complete series' own gaps take the filled values") {
+TEST_CASE("forecast metric: the complete series' own gaps are bridged the same way for every method") {
   Case k;
   k.truth = test::r_series("UKDriverDeaths");
-  k.filled = k.truth;
-  k.truth[40] = NaN;  // a real gap in the truth; the method filled it
-  k.filled[40] = 1500;
+  const double before = k.truth[39], after = k.truth[42];
+  k.truth[40] = NaN;  // a real gap of two points in the truth
+  k.truth[41] = NaN;
   k.truth[185] = NaN;  // a real gap in the holdout: skipped when scoring
   k.mask.assign(k.truth.size(), 0);
   k.period = 12;
   k.holdout = 12;
-  const auto out = run("forecast", k.input());
-  CHECK(std::isfinite(out[1]));
-  CHECK(out[0] == out[1]);
+
+  // The reference: the complete series with the training gap bridged by
+  // linear interpolation by hand (point 185 stays missing and is skipped).
+  Case bridged = k;
+  bridged.truth[40] = before + (after - before) / 3;
+  bridged.truth[41] = before + 2 * (after - before) / 3;
+  bridged.filled = bridged.truth;
+  const auto expected = run("forecast", bridged.input());
+
+  // Two methods that guess the real gap differently: same mase_complete,
+  // and with the masked points perfect, zero cost.
+  for (double guess : {1500.0, 2500.0}) {
+    k.filled = k.truth;
+    k.filled[40] = k.filled[41] = k.filled[185] = guess;
+    const auto out = run("forecast", k.input());
+    INFO("guess " << guess);
+    CHECK(out[1] == expected[1]);
+    CHECK(out[0] == out[1]);
+    CHECK(out[2] == 0.0);
+  }
+}
+
+TEST_CASE("forecast metric: a gap at the start of the complete series takes the first observed value") {
+  Case k;
+  k.truth = test::r_series("co2");
+  k.truth.resize(120);
+  k.mask.assign(k.truth.size(), 0);
+  k.period = 12;
+  k.holdout = 12;
+  Case bridged = k;
+  bridged.filled = bridged.truth;
+  bridged.truth[0] = bridged.filled[0] = k.truth[1];
+  k.truth[0] = NaN;
+  k.filled = k.truth;
+  k.filled[0] = 999;  // the method's guess is not used
+  CHECK(run("forecast", k.input()) == run("forecast", bridged.input()));
 }
 
 // ---------------------------------------------------------------- interval
