@@ -1,11 +1,18 @@
 #include "gapmark/experiment/summary.hpp"
 
 #include <algorithm>
-#include <boost/math/distributions/students_t.hpp>
 #include <cmath>
+#include <limits>
 #include <map>
 #include <numeric>
 #include <tuple>
+
+#include "gapmark/stats/critical_difference.hpp"
+#include "gapmark/stats/descriptive.hpp"
+#include "gapmark/stats/friedman.hpp"
+#include "gapmark/stats/multiple_testing.hpp"
+#include "gapmark/stats/ranks.hpp"
+#include "gapmark/stats/wilcoxon.hpp"
 
 namespace gapmark {
 namespace {
@@ -25,44 +32,100 @@ double badness(double value, Direction direction) {
 }
 
 MetricSummary describe(const std::vector<double>& xs, double level) {
+  const auto d = stats::describe(xs, level);
   MetricSummary s;
-  s.n = xs.size();
-  if (xs.empty()) {
-    s.mean = s.sd = s.ci_low = s.ci_high = kNaN;
-    return s;
-  }
-  const double n = static_cast<double>(xs.size());
-  s.mean = std::accumulate(xs.begin(), xs.end(), 0.0) / n;
-  if (xs.size() < 2) {
-    s.sd = s.ci_low = s.ci_high = kNaN;
-    return s;
-  }
-  double ss = 0;
-  for (double x : xs) ss += (x - s.mean) * (x - s.mean);
-  s.sd = std::sqrt(ss / (n - 1));
-  boost::math::students_t t(n - 1);
-  const double half = boost::math::quantile(boost::math::complement(t, (1 - level) / 2)) * s.sd / std::sqrt(n);
-  s.ci_low = s.mean - half;
-  s.ci_high = s.mean + half;
+  s.n = d.n;
+  s.mean = d.mean;
+  s.sd = d.sd;
+  s.ci_low = d.ci.low;
+  s.ci_high = d.ci.high;
   return s;
+}
+
+/// Badness with "no value" (a failed trial, a metric not applicable) placed
+/// after every value: +inf, so it ranks last and such entries tie.
+double badness_or_worst(double badness_value) {
+  return std::isnan(badness_value) ? std::numeric_limits<double>::infinity() : badness_value;
 }
 
 /// Average ranks (1 = best) of `scores`; NaN scores share the worst ranks.
 std::vector<double> average_ranks(const std::vector<double>& scores) {
-  const std::size_t k = scores.size();
-  std::vector<std::size_t> order(k);
-  std::iota(order.begin(), order.end(), std::size_t{0});
-  auto key = [&](std::size_t i) { return std::isnan(scores[i]) ? HUGE_VAL : scores[i]; };
-  std::stable_sort(order.begin(), order.end(), [&](auto a, auto b) { return key(a) < key(b); });
-  std::vector<double> ranks(k);
-  for (std::size_t i = 0; i < k;) {
-    std::size_t j = i;
-    while (j + 1 < k && key(order[j + 1]) == key(order[i])) ++j;
-    const double r = (static_cast<double>(i + j) + 2.0) / 2.0;
-    for (std::size_t m = i; m <= j; ++m) ranks[order[m]] = r;
-    i = j + 1;
+  std::vector<double> keys(scores.size());
+  std::transform(scores.begin(), scores.end(), keys.begin(), badness_or_worst);
+  return stats::average_ranks(keys);
+}
+
+/// The tests behind a group's ranking. `table[replicate][method]` holds the
+/// badness of the ranking metric (NaN = no value); g.methods is in rank order
+/// (front = best) and `column_of[position]` is that method's column in
+/// `table`. Sets the group's Friedman result and each method's p_vs_best
+/// and tied_with_best.
+void test_group(CellGroup& g, const std::vector<std::vector<double>>& table,
+                const std::vector<std::size_t>& column_of, double alpha) {
+  const std::size_t k = g.methods.size(), reps = table.size();
+  // Friedman over replicates (blocks) and methods (treatments).
+  std::vector<double> matrix;
+  matrix.reserve(reps * k);
+  for (const auto& row : table)
+    for (double v : row) matrix.push_back(badness_or_worst(v));
+  const auto friedman = stats::friedman(matrix, reps, k);
+  g.friedman_statistic = friedman.statistic;
+  g.friedman_p = friedman.p;
+
+  // Wilcoxon signed-rank of each method against the best, paired over the
+  // replicates where both have a value; Holm over the k - 1 comparisons.
+  if (k == 0) return;
+  const std::size_t best = column_of[0];
+  std::vector<double> raw(k, std::numeric_limits<double>::quiet_NaN());
+  for (std::size_t pos = 1; pos < k; ++pos) {
+    const std::size_t m = column_of[pos];
+    std::vector<double> differences;
+    for (const auto& row : table)
+      if (!std::isnan(row[m]) && !std::isnan(row[best])) differences.push_back(row[m] - row[best]);
+    if (!differences.empty()) raw[pos] = stats::wilcoxon_signed_rank(differences).p;
   }
-  return ranks;
+  const auto adjusted = stats::holm_adjust(raw);
+  g.methods[0].p_vs_best = std::numeric_limits<double>::quiet_NaN();
+  g.methods[0].tied_with_best = true;
+  for (std::size_t pos = 1; pos < k; ++pos) {
+    g.methods[pos].p_vs_best = adjusted[pos];
+    // No shared replicate: cannot be compared, so not counted as tied.
+    g.methods[pos].tied_with_best = !std::isnan(adjusted[pos]) && adjusted[pos] >= alpha;
+  }
+}
+
+/// Across series: each group is a data set; methods are ranked within it by
+/// the badness of their mean on the ranking metric (ties averaged, no value
+/// last), then the mean ranks are tested.
+AcrossSeries compare_groups(const std::vector<const CellGroup*>& groups, std::size_t rank_col,
+                            Direction direction, double alpha, std::map<std::size_t, double>& cd_q) {
+  AcrossSeries a;
+  a.datasets = groups.size();
+  std::map<std::string, std::size_t> index;
+  for (const auto* g : groups)
+    for (const auto& m : g->methods)
+      if (index.try_emplace(m.method, a.methods.size()).second) a.methods.push_back(m.method);
+  const std::size_t k = a.methods.size(), n = groups.size();
+  std::vector<double> matrix(n * k, std::numeric_limits<double>::infinity());
+  for (std::size_t i = 0; i < n; ++i)
+    for (const auto& m : groups[i]->methods)
+      matrix[i * k + index[m.method]] = badness_or_worst(badness(m.metrics[rank_col].mean, direction));
+  a.mean_ranks = stats::mean_row_ranks(matrix, n, k);
+  const auto friedman = stats::friedman(matrix, n, k);
+  a.friedman_chi2 = friedman.statistic;
+  a.friedman_p = friedman.p;
+  const auto id = stats::iman_davenport(friedman.statistic, k, n);
+  a.iman_davenport_f = id.f;
+  a.iman_davenport_p = id.p;
+  if (k >= 2 && n >= 1) {
+    auto it = cd_q.find(k);
+    if (it == cd_q.end()) it = cd_q.emplace(k, stats::nemenyi_q(alpha, static_cast<int>(k))).first;
+    const double kk = static_cast<double>(k);
+    a.critical_difference = it->second * std::sqrt(kk * (kk + 1) / (6.0 * static_cast<double>(n)));
+  } else {
+    a.critical_difference = std::numeric_limits<double>::quiet_NaN();
+  }
+  return a;
 }
 
 }  // namespace
@@ -142,9 +205,37 @@ Summary summarize(const ResultSet& results) {
       ms[order[pos]].rank = pos + 1;
       g.methods.push_back(ms[order[pos]]);
     }
-    if (!g.methods.empty()) g.methods.front().tied_with_best = true;
-    g.friedman_statistic = g.friedman_p = kNaN;
+    test_group(g, table, order, results.alpha);
     summary.groups.push_back(std::move(g));
+  }
+
+  // Across series: per (scheme, rate) over its series, then all groups
+  // pooled when there is more than one (scheme, rate) and more than one
+  // series (conditions of a single series are not separate data sets).
+  std::map<std::size_t, double> nemenyi_q;  // by number of methods
+  std::vector<std::pair<std::string, double>> conditions;
+  std::vector<std::string> series;
+  for (const auto& g : summary.groups) {
+    if (std::find(conditions.begin(), conditions.end(), std::make_pair(g.scheme, g.rate)) == conditions.end())
+      conditions.emplace_back(g.scheme, g.rate);
+    if (std::find(series.begin(), series.end(), g.series) == series.end()) series.push_back(g.series);
+  }
+  for (const auto& [scheme, rate] : conditions) {
+    std::vector<const CellGroup*> members;
+    for (const auto& g : summary.groups)
+      if (g.scheme == scheme && g.rate == rate) members.push_back(&g);
+    auto a = compare_groups(members, rank_col, direction, results.alpha, nemenyi_q);
+    a.scheme = scheme;
+    a.rate = rate;
+    summary.across.push_back(std::move(a));
+  }
+  if (conditions.size() > 1 && series.size() > 1) {
+    std::vector<const CellGroup*> all;
+    for (const auto& g : summary.groups) all.push_back(&g);
+    auto a = compare_groups(all, rank_col, direction, results.alpha, nemenyi_q);
+    a.scheme.clear();
+    a.rate = 0;
+    summary.across.push_back(std::move(a));
   }
   return summary;
 }

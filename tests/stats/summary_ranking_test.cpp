@@ -149,6 +149,16 @@ TEST_CASE("one condition only: no pooled entry") {
   CHECK(summary.across[0].scheme == "scheme_x");
 }
 
+TEST_CASE("one series only: no pooled entry, however many conditions") {
+  const auto ref = stats_test::load_reference("summary.json")["cases"];
+  const auto summary = gapmark::summarize(results_from(ref, "s2"));  // scheme_y at two rates
+  REQUIRE(summary.across.size() == 2);
+  for (const auto& a : summary.across) {
+    CHECK(a.scheme == "scheme_y");
+    CHECK(a.datasets == 1);
+  }
+}
+
 TEST_CASE("closer to zero is better: ranks use the absolute value") {
   gapmark::ResultSet rs;
   rs.columns = {gapmark::MetricColumn{"bias", "value", gapmark::Direction::ZeroBest, "mean error"}};
