@@ -22,5 +22,8 @@ void add_metrics(CLI::App& app, Action& action);
 void add_mask(CLI::App& app, Action& action);
 void add_fill(CLI::App& app, Action& action);
 void add_run(CLI::App& app, Action& action);
+void add_merge(CLI::App& app, Action& action);
+void add_report(CLI::App& app, Action& action);
+void add_compare(CLI::App& app, Action& action);
 
 }  // namespace gapmark::cli

@@ -15,6 +15,9 @@ int main(int argc, char** argv) {
   app.require_subcommand(1);
   Action action;
   add_run(app, action);
+  add_merge(app, action);
+  add_report(app, action);
+  add_compare(app, action);
   add_fill(app, action);
   add_mask(app, action);
   add_methods(app, action);

@@ -15,7 +15,7 @@ nlohmann::json results_to_json(const ResultSet& results, const Summary& summary)
   nlohmann::json warnings = nlohmann::json::array();
   for (const auto& w : results.warnings)
     warnings.push_back({{"code", w.code}, {"where", w.where}, {"message", w.message}, {"hint", w.hint}});
-  return {{"format", "gapmark-results"},
+  nlohmann::json out = {{"format", "gapmark-results"},
           {"schema_version", kResultsSchemaVersion},
           {"context", results.context},
           {"rank_by", results.rank_by},
@@ -26,6 +26,8 @@ nlohmann::json results_to_json(const ResultSet& results, const Summary& summary)
           {"summary", summary_to_json(summary, results)},
           {"warnings", warnings},
           {"timing", results.timing}};
+  if (!results.examples.is_null()) out["examples"] = results.examples;
+  return out;
 }
 
 ResultSet results_from_json(const nlohmann::json& j, const std::string& source) {
@@ -53,6 +55,7 @@ ResultSet results_from_json(const nlohmann::json& j, const std::string& source) 
       r.warnings.push_back({w.at("code").get<std::string>(), w.at("where").get<std::string>(),
                             w.at("message").get<std::string>(), w.at("hint").get<std::string>()});
     if (j.contains("timing")) r.timing = j.at("timing");
+    if (j.contains("examples")) r.examples = j.at("examples");
   } catch (const nlohmann::json::exception& e) {
     throw InputError(source, std::string("malformed results: ") + e.what());
   }

@@ -48,6 +48,7 @@ struct ResultSet {
   std::string rank_by = "rmse";
   double alpha = 0.05;
   nlohmann::json timing;               ///< wall-clock facts; comparisons ignore it
+  nlohmann::json examples;             ///< optional example windows (experiment/examples.hpp); null = none
 
   std::size_t column_index(const std::string& name) const;  ///< InputError if absent
 };

@@ -1,0 +1,41 @@
+// `gapmark compare`: is the current run worse than a baseline? Prints a
+// table of what changed; exit status 1 when a cell regressed, 0 otherwise.
+#include <iostream>
+
+#include "commands.hpp"
+#include "gapmark/compare/compare.hpp"
+#include "gapmark/experiment/results_io.hpp"
+#include "gapmark/table_io.hpp"
+
+namespace gapmark::cli {
+
+void add_compare(CLI::App& app, Action& action) {
+  struct Options {
+    std::string baseline, current, tolerance, tolerance_file, json;
+  };
+  auto o = std::make_shared<Options>();
+  auto* cmd = app.add_subcommand(
+      "compare", "Compare two results files of the same spec; exit 1 when a metric got significantly worse");
+  cmd->add_option("BASELINE", o->baseline, "The reference results.json")->required();
+  cmd->add_option("CURRENT", o->current, "The results.json to check")->required();
+  cmd->add_option("--tolerance", o->tolerance,
+                  "Allowed worsening per metric: \"rmse=5%,mae=0.01,*=1%\" (% = relative; default 1e-6 relative)");
+  cmd->add_option("--tolerance-file", o->tolerance_file,
+                  "JSON {\"rmse\": {\"relative\": 0.05}, \"mae\": {\"absolute\": 0.01}}; --tolerance wins over it");
+  cmd->add_option("--json", o->json, "Also write the comparison as JSON to this file");
+  cmd->callback([&action, o] {
+    action = [o] {
+      Tolerances tolerances;
+      if (!o->tolerance_file.empty()) tolerances = read_tolerance_file(o->tolerance_file, tolerances);
+      if (!o->tolerance.empty()) tolerances = parse_tolerance_text(o->tolerance, "--tolerance", tolerances);
+      const ResultSet baseline = read_results(o->baseline);
+      const ResultSet current = read_results(o->current);
+      const Comparison c = compare_results(baseline, current, tolerances, o->baseline, o->current);
+      std::cout << comparison_text(c);
+      if (!o->json.empty()) write_file_atomically(o->json, comparison_to_json(c).dump(1) + "\n");
+      return c.regressed.empty() ? kOk : kRegression;
+    };
+  });
+}
+
+}  // namespace gapmark::cli

@@ -1,0 +1,170 @@
+#include "gapmark/experiment/examples.hpp"
+
+#include <algorithm>
+#include <cmath>
+
+#include "gapmark/rng.hpp"
+#include "gapmark/stats/acf.hpp"
+
+namespace gapmark {
+namespace {
+
+nlohmann::json num(double v) { return std::isfinite(v) ? nlohmann::json(v) : nlohmann::json(nullptr); }
+
+/// The largest lag: the spec's "acf" metric setting when it gives one, else
+/// twice the period, or 24 without a period; at most n - 1.
+std::size_t acf_lags(const ExperimentSpec& spec, const Series& series) {
+  std::size_t lags = 0;
+  for (const auto& m : spec.metrics)
+    if (m.entry && m.entry->name == "acf" && m.params.has("lags"))
+      lags = static_cast<std::size_t>(m.params.integer("lags"));
+  if (lags == 0) lags = series.period >= 2 ? 2 * series.period : 24;
+  return series.values.size() > 1 ? std::min(lags, series.values.size() - 1) : 0;
+}
+
+/// Start of the window of `width` points holding the most masked points
+/// (the earliest such window).
+std::size_t best_window(const Mask& mask, std::size_t width) {
+  if (mask.size() <= width) return 0;
+  std::size_t count = 0;
+  for (std::size_t i = 0; i < width; ++i) count += mask[i];
+  std::size_t best = count, start = 0;
+  for (std::size_t s = 1; s + width <= mask.size(); ++s) {
+    count += mask[s + width - 1];
+    count -= mask[s - 1];
+    if (count > best) {
+      best = count;
+      start = s;
+    }
+  }
+  return start;
+}
+
+/// The runner's fill request for a series: the masked values, the axis, the
+/// period and the other series of the same data source as siblings.
+FillRequest fill_request_for(const LoadedData& data, std::size_t index, const std::vector<double>& holed) {
+  FillRequest request;
+  request.values = holed;
+  request.axis = &data.series[index].axis;
+  request.period = data.series[index].period;
+  for (std::size_t s = 0; s < data.series.size(); ++s) {
+    if (s == index || data.dataset[s] != data.dataset[index]) continue;
+    request.siblings.emplace_back(data.series[s].values);
+    request.sibling_names.push_back(data.series[s].label());
+  }
+  return request;
+}
+
+/// ACF r_1..r_L of `values` with the complete series' own gaps left out.
+nlohmann::json acf_json(std::span<const double> truth, std::span<const double> values, std::size_t lags) {
+  std::vector<double> x(values.begin(), values.end());
+  for (std::size_t i = 0; i < x.size(); ++i)
+    if (std::isnan(truth[i])) x[i] = std::nan("");
+  nlohmann::json out = nlohmann::json::array();
+  const auto r = stats::sample_autocorrelation(x, lags);
+  for (std::size_t k = 1; k < r.size(); ++k) out.push_back(num(r[k]));
+  return out;
+}
+
+nlohmann::json example_for(const ExperimentSpec& spec, const LoadedData& data, const Summary& summary,
+                           std::size_t index, const ExampleOptions& options) {
+  const Series& series = data.series[index];
+  const auto& plan = spec.schemes.front();
+  const Task task{index, 0, 0, 0};
+  const double rate = plan.rates.front();
+  nlohmann::json ex = {{"series", series.label()}, {"scheme", plan.scheme.label}, {"rate", rate},
+                       {"replicate", 0}};
+
+  const CellGroup* group = nullptr;
+  for (const auto& g : summary.groups)
+    if (g.series == series.label() && g.scheme == plan.scheme.label && g.rate == rate) group = &g;
+  if (group == nullptr) {
+    ex["note"] = "no summary for this cell";
+    return ex;
+  }
+
+  // The same mask as the run: same request, same seed from the same key.
+  MaskRequest request{series.values, &series.axis, series.period, spec.holdout, rate,
+                      spec.source + ": " + plan.scheme.label + ", series '" + series.label() + "'"};
+  Rng rng(task_seed(spec.seed, task_key(spec, data, task)));
+  Mask mask;
+  try {
+    mask = plan.scheme.impl->draw(request, rng);
+  } catch (const std::exception& e) {
+    ex["note"] = std::string("the scheme could not mask this series: ") + e.what();
+    return ex;
+  }
+  const std::vector<double> holed = apply_mask(series.values, mask);
+  const FillRequest fill_request = fill_request_for(data, index, holed);
+
+  const std::size_t n = series.values.size();
+  const std::size_t width = std::min(options.window, n);
+  const std::size_t start = best_window(mask, width);
+  const std::size_t lags = acf_lags(spec, series);
+  ex["start"] = start;
+  ex["length"] = width;
+  ex["time_first"] = width ? series.axis.format(start) : "";
+  ex["time_last"] = width ? series.axis.format(start + width - 1) : "";
+  ex["step"] = series.axis.step().iso();
+  nlohmann::json truth = nlohmann::json::array(), shown_mask = nlohmann::json::array();
+  for (std::size_t i = start; i < start + width; ++i) {
+    truth.push_back(num(series.values[i]));
+    shown_mask.push_back(static_cast<int>(mask[i]));
+  }
+  ex["truth"] = truth;
+  ex["mask"] = shown_mask;
+
+  nlohmann::json methods = nlohmann::json::array();
+  nlohmann::json acf_methods = nlohmann::json::array();
+  for (const auto& ms : group->methods) {
+    if (methods.size() >= options.top) break;  // group->methods are in rank order
+    if (ms.failures == ms.trials) continue;  // never filled this cell
+    const Bound<FillMethod>* method = nullptr;
+    for (const auto& m : spec.methods)
+      if (m.label == ms.method) method = &m;
+    if (method == nullptr) continue;
+    nlohmann::json entry = {{"method", ms.method}, {"rank", ms.rank}};
+    std::vector<double> filled;
+    try {
+      check_needs(method->entry->needs, fill_request);
+      filled = method->impl->fill(fill_request).values;
+      if (filled.size() != n) throw MethodFailure("returned the wrong number of values");
+    } catch (const std::exception& e) {
+      entry["status"] = "failed";
+      entry["reason"] = e.what();
+      entry["filled"] = nullptr;
+      methods.push_back(entry);
+      continue;
+    }
+    // As the runner does: observed values are kept, non-finite fills are empty.
+    bool complete = true;
+    for (std::size_t i = 0; i < n; ++i) {
+      if (!std::isnan(holed[i])) filled[i] = holed[i];
+      if (mask[i] && !std::isfinite(filled[i])) {
+        filled[i] = std::nan("");
+        complete = false;
+      }
+    }
+    nlohmann::json values = nlohmann::json::array();
+    for (std::size_t i = start; i < start + width; ++i) values.push_back(mask[i] ? num(filled[i]) : nullptr);
+    entry["status"] = complete ? "ok" : "partial";
+    entry["filled"] = values;
+    methods.push_back(entry);
+    if (complete) acf_methods.push_back({{"method", ms.method}, {"values", acf_json(series.values, filled, lags)}});
+  }
+  ex["methods"] = methods;
+  ex["acf"] = {{"lags", lags}, {"truth", acf_json(series.values, series.values, lags)}, {"methods", acf_methods}};
+  return ex;
+}
+
+}  // namespace
+
+nlohmann::json build_examples(const ExperimentSpec& spec, const LoadedData& data, const Summary& summary,
+                              const ExampleOptions& options) {
+  nlohmann::json list = nlohmann::json::array();
+  if (!spec.schemes.empty() && !spec.schemes.front().rates.empty())
+    for (std::size_t s = 0; s < data.series.size(); ++s) list.push_back(example_for(spec, data, summary, s, options));
+  return {{"window", options.window}, {"top", options.top}, {"series", list}};
+}
+
+}  // namespace gapmark

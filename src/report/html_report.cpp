@@ -1,0 +1,466 @@
+// report.html: one self-contained page (inline CSS and SVG, no scripts, no
+// outside fonts or images) that a person can read without the JSON: how to
+// read it, the cautions, per series the recommendation, charts of error
+// against missing rate and gap length, an example window with the leading
+// fills and their autocorrelation, the ranked tables, and across series the
+// mean-rank chart with the critical difference.
+#include <algorithm>
+#include <cmath>
+#include <map>
+#include <set>
+
+#include "gapmark/number_format.hpp"
+#include "gapmark/report/html_charts.hpp"
+#include "gapmark/report/html_style.hpp"
+#include "gapmark/report/reporter.hpp"
+#include "gapmark/report/table_text.hpp"
+
+namespace gapmark {
+namespace {
+
+using svg::escape;
+
+constexpr std::size_t kShownMethods = 5;  ///< methods drawn in the charts of a series
+const char* kGapColumns[3] = {"rmse_gap_short", "rmse_gap_medium", "rmse_gap_long"};
+
+std::string percent(double rate) { return short_number(100 * rate) + "%"; }
+
+std::string condition(const CellGroup& g) { return g.scheme + " at " + percent(g.rate); }
+
+std::string anchor(std::size_t index) { return "series-" + std::to_string(index + 1); }
+
+/// The groups of one series, in summary order.
+std::vector<const CellGroup*> groups_of(const Summary& summary, const std::string& series) {
+  std::vector<const CellGroup*> out;
+  for (const auto& g : summary.groups)
+    if (g.series == series) out.push_back(&g);
+  return out;
+}
+
+std::vector<std::string> series_labels(const ResultSet& results, const Summary& summary) {
+  std::vector<std::string> out;
+  std::set<std::string> seen;
+  if (results.series.is_array())
+    for (const auto& s : results.series) {
+      const std::string label = s.value("label", std::string());
+      if (seen.insert(label).second) out.push_back(label);
+    }
+  for (const auto& g : summary.groups)
+    if (seen.insert(g.series).second) out.push_back(g.series);
+  return out;
+}
+
+/// Methods of a series ordered by their average rank over its conditions.
+std::vector<std::string> method_order(const std::vector<const CellGroup*>& groups) {
+  std::map<std::string, std::pair<double, std::size_t>> sums;
+  std::vector<std::string> names;
+  for (const auto* g : groups)
+    for (const auto& m : g->methods) {
+      auto [it, inserted] = sums.try_emplace(m.method, 0.0, 0);
+      if (inserted) names.push_back(m.method);
+      it->second.first += static_cast<double>(m.rank);
+      it->second.second++;
+    }
+  std::stable_sort(names.begin(), names.end(), [&](const auto& a, const auto& b) {
+    return sums[a].first / static_cast<double>(sums[a].second) < sums[b].first / static_cast<double>(sums[b].second);
+  });
+  return names;
+}
+
+class StyleMap {
+public:
+  explicit StyleMap(const std::vector<std::string>& order) {
+    for (std::size_t i = 0; i < order.size() && i < kShownMethods; ++i) index_[order[i]] = i;
+  }
+  svg::Style operator()(const std::string& method) {
+    auto it = index_.find(method);
+    if (it == index_.end()) it = index_.emplace(method, index_.size()).first;
+    return svg::style(it->second);
+  }
+
+private:
+  std::map<std::string, std::size_t> index_;
+};
+
+std::string legend(const std::vector<std::string>& methods, StyleMap& styles) {
+  std::string out = "<div class=\"legend\">";
+  for (const auto& m : methods) out += "<span>" + svg::legend_swatch(styles(m)) + escape(m) + "</span>";
+  return out + "</div>";
+}
+
+const MethodSummary* find_method(const CellGroup& g, const std::string& method) {
+  for (const auto& m : g.methods)
+    if (m.method == method) return &m;
+  return nullptr;
+}
+
+std::string metric_cell(const MetricSummary& s) { return escape(mean_sd(s)); }
+
+// ---------------------------------------------------------------- sections
+
+std::string page_header(const ResultSet& results, const Summary& summary) {
+  const auto& c = results.context;
+  const std::string name = c.value("spec_name", std::string("experiment"));
+  std::string out = "<header class=\"page\"><h1>Gap-filling benchmark: " + escape(name) + "</h1>";
+  out += "<div class=\"facts\">gapmark " + escape(c.value("version", std::string("?"))) + " (commit " +
+         escape(c.value("commit", std::string("unknown"))) + ") · seed " +
+         escape(c.contains("seed") ? c["seed"].dump() : std::string("?")) + " · " +
+         escape(c.contains("replicates") ? c["replicates"].dump() : std::string("?")) + " replicates · ranked by " +
+         escape(summary.rank_by) + " · α = " + short_number(summary.alpha) + "<br>spec SHA-256 <code>" +
+         escape(c.value("spec_sha256", std::string("?"))) + "</code></div></header>";
+  return out;
+}
+
+std::string how_to_read(const ResultSet& results, const Summary& summary) {
+  const auto& rc = results.columns[results.column_index(summary.rank_by)];
+  const std::string level = short_number(100 * (1 - summary.alpha));
+  std::string out = "<section id=\"how-to-read\"><h2>How to read this</h2>";
+  out += "<p>Known values of each series were hidden on purpose, following the masking schemes listed with each "
+         "table, at each missing rate and over several replicates. Every method filled the same hidden points, "
+         "and each fill was scored against the values that had been hidden. A <em>condition</em> is one scheme at "
+         "one missing rate.</p>";
+  out += "<p>Methods are ranked by <strong>" + escape(rc.name) + "</strong> (" + escape(rc.summary) + "; " +
+         escape(direction_words(rc.direction)) + "). Each cell shows the mean ± standard deviation over the "
+         "replicates; the interval is the " + level +
+         "% confidence interval of the mean. A ✓ and a green row mark the methods the paired test could not "
+         "tell apart from the best at α = " + short_number(summary.alpha) +
+         ": on this evidence they are as good as the best. The charts show the five leading methods of each "
+         "series, each with its own colour, line pattern and marker; shaded bands and whiskers are the "
+         + level + "% confidence intervals.</p></section>";
+  return out;
+}
+
+std::string cautions() {
+  return "<aside class=\"caution\" id=\"cautions\"><strong>Before you use these results</strong>"
+         "Filled values are estimates, not measurements. A benchmark on synthetic masks can flatter a method "
+         "when the real gaps differ in length, timing or cause from the masks used here, so check that the "
+         "schemes resemble your gaps. Where filled data feed safety decisions (flood warnings, dosing, "
+         "structural monitoring and the like), follow the applicable standards and have a qualified person "
+         "review the method and the filled values before use.</aside>";
+}
+
+struct Recommendation {
+  std::vector<std::string> leading;  ///< best or tied in the most conditions
+  std::size_t count = 0, conditions = 0;
+};
+
+Recommendation recommend(const std::vector<const CellGroup*>& groups, const std::vector<std::string>& order) {
+  Recommendation r;
+  r.conditions = groups.size();
+  std::map<std::string, std::size_t> good;
+  for (const auto* g : groups)
+    for (const auto& m : g->methods)
+      if (m.tied_with_best || m.rank == 1) ++good[m.method];
+  for (const auto& [m, n] : good) r.count = std::max(r.count, n);
+  for (const auto& m : order)
+    if (r.count && good[m] == r.count) r.leading.push_back(m);
+  return r;
+}
+
+std::string recommendation_card(const ResultSet& results, const std::vector<const CellGroup*>& groups,
+                                const std::vector<std::string>& order) {
+  const std::size_t rank_col = results.column_index(results.rank_by);
+  const Recommendation r = recommend(groups, order);
+  std::string out = "<div class=\"card recommend\"><p>";
+  if (r.leading.empty()) return out + "No method could be ranked on this series.</p></div>";
+  out += "Recommended on this evidence: <span class=\"best\">" + escape(r.leading.front()) + "</span>";
+  if (r.leading.size() > 1) {
+    out += ", with ";
+    for (std::size_t i = 1; i < r.leading.size(); ++i)
+      out += (i > 1 ? (i + 1 == r.leading.size() ? " and " : ", ") : "") + escape(r.leading[i]);
+    out += " equally placed";
+  }
+  out += ": best or tied with the best in " + std::to_string(r.count) + " of " + std::to_string(r.conditions) +
+         " condition" + (r.conditions == 1 ? "" : "s") + ".</p><ul>";
+  for (const auto* g : groups) {
+    if (g->methods.empty()) continue;
+    const auto& best = g->methods.front();
+    out += "<li>" + escape(condition(*g)) + ": best <strong>" + escape(best.method) + "</strong> (" +
+           escape(results.rank_by) + " " + escape(short_number(best.metrics[rank_col].mean));
+    if (!interval(best.metrics[rank_col]).empty()) out += ", interval " + escape(interval(best.metrics[rank_col]));
+    out += ")";
+    std::vector<std::string> tied;
+    for (std::size_t i = 1; i < g->methods.size(); ++i)
+      if (g->methods[i].tied_with_best) tied.push_back(g->methods[i].method);
+    if (tied.empty()) {
+      out += "; no other method tied with it";
+    } else {
+      out += "; not distinguishable from it: ";
+      for (std::size_t i = 0; i < tied.size(); ++i) out += (i ? ", " : "") + escape(tied[i]);
+    }
+    out += "</li>";
+  }
+  return out + "</ul></div>";
+}
+
+/// Error against missing rate: one chart per scheme of the series.
+std::string rate_charts(const ResultSet& results, const std::vector<const CellGroup*>& groups,
+                        const std::vector<std::string>& shown, StyleMap& styles) {
+  const std::size_t rank_col = results.column_index(results.rank_by);
+  std::vector<std::string> schemes;
+  for (const auto* g : groups)
+    if (std::find(schemes.begin(), schemes.end(), g->scheme) == schemes.end()) schemes.push_back(g->scheme);
+  std::string out = "<h3>Error against missing rate</h3><div class=\"grid2\">";
+  for (const auto& scheme : schemes) {
+    std::vector<const CellGroup*> gs;
+    for (const auto* g : groups)
+      if (g->scheme == scheme) gs.push_back(g);
+    std::stable_sort(gs.begin(), gs.end(), [](auto a, auto b) { return a->rate < b->rate; });
+    charts::LineChart chart;
+    chart.title = results.rank_by + " against missing rate, " + scheme;
+    chart.x_label = "missing rate";
+    chart.y_label = results.rank_by;
+    for (const auto* g : gs) {
+      chart.x.push_back(g->rate);
+      if (gs.size() == 1) chart.x_names.push_back(percent(g->rate));
+    }
+    for (const auto& m : shown) {
+      charts::ChartLine line{m, {}, {}, {}, styles(m)};
+      for (const auto* g : gs) {
+        const auto* ms = find_method(*g, m);
+        const MetricSummary s = ms ? ms->metrics[rank_col] : MetricSummary{NAN, NAN, NAN, NAN, 0};
+        line.y.push_back(s.mean);
+        line.low.push_back(s.ci_low);
+        line.high.push_back(s.ci_high);
+      }
+      chart.lines.push_back(std::move(line));
+    }
+    const std::string svg = charts::line_chart(chart);
+    out += "<div class=\"figure\"><h4>" + escape(scheme) + "</h4>" +
+           (svg.empty() ? "<p class=\"empty\">no values to draw</p>" : svg) + "</div>";
+  }
+  return out + "</div>";
+}
+
+/// Error against gap length for one condition, when the results carry the
+/// by_gap_length columns.
+std::string gap_chart(const ResultSet& results, const CellGroup& g, const std::vector<std::string>& shown,
+                      StyleMap& styles) {
+  std::vector<std::size_t> cols;
+  std::vector<std::string> names;
+  for (const char* name : kGapColumns)
+    for (std::size_t c = 0; c < results.columns.size(); ++c)
+      if (results.columns[c].name == name) {
+        cols.push_back(c);
+        const std::string& text = results.columns[c].summary;
+        const auto pos = text.find("length ");
+        names.push_back(pos == std::string::npos ? name : text.substr(pos + 7));
+      }
+  if (cols.size() != 3) return "";
+  charts::LineChart chart;
+  chart.title = "RMSE by gap length, " + condition(g);
+  chart.x_label = "gap length (points)";
+  chart.y_label = "rmse";
+  chart.x = {0, 1, 2};
+  chart.x_names = names;
+  chart.bands = false;
+  std::size_t classes_with_values = 0;
+  for (std::size_t k = 0; k < 3; ++k)
+    for (const auto& m : g.methods)
+      if (m.metrics[cols[k]].n) {
+        ++classes_with_values;
+        break;
+      }
+  if (classes_with_values < 1) return "";
+  for (const auto& m : shown) {
+    const auto* ms = find_method(g, m);
+    if (!ms) continue;
+    charts::ChartLine line{m, {}, {}, {}, styles(m)};
+    for (auto c : cols) {
+      line.y.push_back(ms->metrics[c].mean);
+      line.low.push_back(ms->metrics[c].ci_low);
+      line.high.push_back(ms->metrics[c].ci_high);
+    }
+    chart.lines.push_back(std::move(line));
+  }
+  const std::string svg = charts::line_chart(chart);
+  if (svg.empty()) return "";
+  return "<div class=\"figure\">" + svg +
+         "<p class=\"note\">RMSE on the hidden points grouped by the length of the gap they sat in (hidden points "
+         "and the series' own missing values together). A class without points in a replicate has no value.</p></div>";
+}
+
+std::string ranked_table(const ResultSet& results, const Summary& summary, const CellGroup& g) {
+  const std::size_t rank_col = results.column_index(results.rank_by);
+  const std::string level = short_number(100 * (1 - summary.alpha));
+  std::vector<std::size_t> others;
+  for (std::size_t c = 0; c < results.columns.size(); ++c)
+    if (c != rank_col && results.columns[c].direction != Direction::None) others.push_back(c);
+  std::string out = "<div class=\"scroll\"><table><caption>" + escape(condition(g)) + ", " +
+                    std::to_string(g.replicates) + " replicates; mean ± sd over replicates";
+  if (std::isfinite(g.friedman_p))
+    out += "; Friedman test over replicates χ² = " + escape(short_number(g.friedman_statistic)) + ", p = " +
+           escape(short_number(g.friedman_p));
+  out += "</caption><thead><tr><th>rank</th><th class=\"name\">method</th><th>" + escape(results.rank_by) + "</th><th>" +
+         level + "% interval</th><th>tied</th>";
+  for (auto c : others)
+    out += "<th title=\"" + escape(results.columns[c].summary) + "\">" + escape(results.columns[c].name) + "</th>";
+  out += "<th>mean rank</th><th>failed</th></tr></thead><tbody>";
+  for (const auto& m : g.methods) {
+    out += std::string("<tr") + (m.tied_with_best ? " class=\"tied\"" : "") + "><td>" + std::to_string(m.rank) +
+           "</td><td class=\"name\">" + escape(m.method) + "</td><td>" + metric_cell(m.metrics[rank_col]) +
+           "</td><td>" + escape(interval(m.metrics[rank_col])) + "</td><td class=\"mark\">" +
+           (m.tied_with_best ? "✓" : "") + "</td>";
+    for (auto c : others) out += "<td>" + metric_cell(m.metrics[c]) + "</td>";
+    out += "<td>" + escape(short_number(m.mean_rank)) + "</td><td" + (m.failures ? " class=\"failed\"" : "") + ">" +
+           (m.failures ? std::to_string(m.failures) + "/" + std::to_string(m.trials) : "0") + "</td></tr>";
+  }
+  return out + "</tbody></table></div>";
+}
+
+const nlohmann::json* example_of(const ResultSet& results, const std::string& series) {
+  if (!results.examples.is_object() || !results.examples.contains("series")) return nullptr;
+  for (const auto& e : results.examples["series"])
+    if (e.value("series", std::string()) == series) return &e;
+  return nullptr;
+}
+
+std::string example_section(const nlohmann::json* example, StyleMap& styles) {
+  std::string out = "<h3>Example window</h3>";
+  if (example == nullptr)
+    return out + "<p class=\"empty\">These results carry no example window for this series.</p>";
+  if (example->contains("note"))
+    return out + "<p class=\"empty\">No example: " + escape(example->value("note", std::string())) + "</p>";
+  std::vector<svg::Style> s;
+  std::vector<std::string> names;
+  std::string failures;
+  for (const auto& m : example->value("methods", nlohmann::json::array())) {
+    names.push_back(m.value("method", std::string()));
+    s.push_back(styles(names.back()));
+    if (m.value("status", std::string()) == "failed")
+      failures += " " + escape(names.back()) + " failed on this replicate: " + escape(m.value("reason", std::string())) + ".";
+  }
+  const std::string window = charts::window_chart(*example, s);
+  const std::string acf = charts::acf_chart(*example, s);
+  out += "<div class=\"legend\"><span><svg class=\"swatch\" viewBox=\"0 0 34 12\" width=\"34\" height=\"12\" "
+         "aria-hidden=\"true\"><line x1=\"1\" y1=\"6\" x2=\"33\" y2=\"6\" stroke=\"" + std::string(svg::kInk) +
+         "\" stroke-width=\"1.3\"/><circle cx=\"17\" cy=\"6\" r=\"2.6\" fill=\"#fff\" stroke=\"" + svg::kInk +
+         "\"/></svg>true values (rings: hidden)</span><span><svg class=\"swatch\" viewBox=\"0 0 34 12\" width=\"34\" "
+         "height=\"12\" aria-hidden=\"true\"><rect x=\"1\" y=\"0\" width=\"32\" height=\"12\" fill=\"" +
+         svg::kShade + "\"/></svg>hidden stretch</span>";
+  for (std::size_t i = 0; i < names.size(); ++i)
+    out += "<span>" + svg::legend_swatch(s[i]) + escape(names[i]) + "</span>";
+  out += "</div>";
+  out += "<div class=\"figure\">" + (window.empty() ? "<p class=\"empty\">nothing to draw</p>" : window) +
+         "<p class=\"note\">" + escape(example->value("scheme", std::string())) + " at " +
+         percent(example->value("rate", 0.0)) + ", replicate 1: points " +
+         std::to_string(example->value("start", 0)) + " to " +
+         std::to_string(example->value("start", 0) + example->value("length", 0) - 1) + " (" +
+         escape(example->value("time_first", std::string())) + " to " +
+         escape(example->value("time_last", std::string())) + ", step " +
+         escape(example->value("step", std::string())) +
+         "), chosen as the stretch with the most hidden points. The leading methods of that condition refilled the "
+         "same mask as in the run." + failures + "</p></div>";
+  if (!acf.empty())
+    out += "<div class=\"figure\">" + acf +
+           "<p class=\"note\">Autocorrelation of the whole series: grey bars for the complete series, lines for the "
+           "series with each method's fill. A fill that keeps the series' structure stays close to the bars.</p></div>";
+  return out;
+}
+
+std::string series_section(const ResultSet& results, const Summary& summary, const std::string& label,
+                           std::size_t index) {
+  const auto groups = groups_of(summary, label);
+  const auto order = method_order(groups);
+  std::vector<std::string> shown(order.begin(), order.begin() + std::min(order.size(), kShownMethods));
+  StyleMap styles(order);
+  std::string out = "<section id=\"" + anchor(index) + "\"><h2>" + escape(label) + "</h2>";
+  if (results.series.is_array())
+    for (const auto& s : results.series)
+      if (s.value("label", std::string()) == label)
+        out += "<p class=\"facts\">" + escape(s.value("source", std::string())) + " · " +
+               std::to_string(s.value("points", 0)) + " points, " + std::to_string(s.value("observed", 0)) +
+               " observed · step " + escape(s.value("step", std::string())) + " · period " +
+               (s.value("period", 0) ? std::to_string(s.value("period", 0)) : std::string("none")) + " · starts " +
+               escape(s.value("start", std::string())) + "</p>";
+  if (groups.empty()) return out + "<p class=\"empty\">No trials for this series.</p></section>";
+  out += recommendation_card(results, groups, order);
+  out += "<h3>Leading methods</h3>" + legend(shown, styles);
+  out += rate_charts(results, groups, shown, styles);
+  out += example_section(example_of(results, label), styles);
+  out += "<h3>Ranked tables</h3>";
+  for (std::size_t i = 0; i < groups.size(); ++i) {
+    const auto* g = groups[i];
+    const std::string best = g->methods.empty() ? std::string("n/a") : g->methods.front().method;
+    out += std::string("<details") + (i == 0 ? " open" : "") + "><summary>" + escape(condition(*g)) +
+           " <span class=\"sub\">— best " + escape(best) + "</span></summary>";
+    out += ranked_table(results, summary, *g);
+    out += gap_chart(results, *g, shown, styles);
+    out += "</details>";
+  }
+  return out + "</section>";
+}
+
+std::string across_section(const Summary& summary) {
+  std::string out = "<section id=\"across\"><h2>Across series</h2>";
+  bool drawn = false;
+  for (const auto& a : summary.across) {
+    const std::string svg = a.datasets >= 2 ? charts::rank_ladder(a) : "";
+    if (svg.empty()) continue;
+    drawn = true;
+    out += "<h3>" + (a.scheme.empty() ? std::string("All conditions pooled") : escape(a.scheme + " at " + percent(a.rate))) +
+           "</h3><p class=\"facts\">" + std::to_string(a.datasets) + " data sets (series × condition) · Friedman χ² = " +
+           escape(short_number(a.friedman_chi2)) + ", p = " + escape(short_number(a.friedman_p)) +
+           " · Iman–Davenport F = " + escape(short_number(a.iman_davenport_f)) + ", p = " +
+           escape(short_number(a.iman_davenport_p)) + " · critical difference " +
+           escape(short_number(a.critical_difference)) + " at α = " + escape(short_number(summary.alpha)) + "</p>";
+    out += "<div class=\"figure\">" + svg +
+           "<p class=\"note\">Each row is a method at its mean rank over the data sets (1 = best). Methods joined "
+           "by a bracket on the right differ by less than the critical difference: the test cannot tell them "
+           "apart.</p></div>";
+  }
+  if (!drawn)
+    out += "<p class=\"empty\">Not enough series for a comparison across series: it needs mean ranks over at least "
+           "two data sets and a critical difference.</p>";
+  return out + "</section>";
+}
+
+std::string warnings_section(const ResultSet& results) {
+  std::string out = "<section id=\"warnings\"><h2>Warnings</h2>";
+  if (results.warnings.empty()) return out + "<p class=\"empty\">None.</p></section>";
+  out += "<ul class=\"warnings\">";
+  for (const auto& w : results.warnings)
+    out += "<li><strong>" + escape(w.code) + "</strong> (" + escape(w.where) + "): " + escape(w.message) +
+           ". <em>" + escape(w.hint) + ".</em></li>";
+  return out + "</ul></section>";
+}
+
+class HtmlReport final : public Reporter {
+public:
+  std::string file_name() const override { return "report.html"; }
+
+  std::string render(const ResultSet& results, const Summary& summary) const override {
+    const std::string name = results.context.value("spec_name", std::string("experiment"));
+    const auto labels = series_labels(results, summary);
+    std::string out = "<!DOCTYPE html>\n<html lang=\"en\"><head><meta charset=\"utf-8\">"
+                      "<meta name=\"viewport\" content=\"width=device-width, initial-scale=1\">"
+                      "<title>gapmark report: " + escape(name) + "</title><style>" + report_css() +
+                      "</style></head><body><main>";
+    out += page_header(results, summary);
+    out += "<nav class=\"toc\"><a href=\"#how-to-read\">How to read this</a>";
+    for (std::size_t i = 0; i < labels.size(); ++i)
+      out += "<a href=\"#" + anchor(i) + "\">" + escape(labels[i]) + "</a>";
+    out += "<a href=\"#across\">Across series</a><a href=\"#warnings\">Warnings (" +
+           std::to_string(results.warnings.size()) + ")</a></nav>";
+    out += cautions();
+    out += how_to_read(results, summary);
+    for (std::size_t i = 0; i < labels.size(); ++i) out += series_section(results, summary, labels[i], i);
+    out += across_section(summary);
+    out += warnings_section(results);
+    out += "<footer>Made by gapmark " + escape(results.context.value("version", std::string("?"))) +
+           " from the results of spec " + escape(name) +
+           ". This page is self-contained: it loads nothing from elsewhere. methods.md describes the "
+           "experiment for a paper; results.json holds every trial.</footer></main></body></html>\n";
+    return out;
+  }
+};
+
+const Registration<Reporter> registration{{
+    .name = "report-html",
+    .summary = "a self-contained HTML page with tables, charts, recommendations and cautions",
+    .params = {},
+    .make = [](const ParamValues&) { return std::make_unique<HtmlReport>(); },
+}};
+
+}  // namespace
+}  // namespace gapmark
