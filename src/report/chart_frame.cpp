@@ -32,7 +32,7 @@ std::vector<double> fit_y(Plot& plot, double lo, double hi) {
 
 std::string axes(const Plot& plot, const std::vector<double>& x_ticks, const std::vector<std::string>& x_names,
                  const std::vector<double>& y_ticks, const std::string& x_label, const std::string& y_label) {
-  std::string out = "<g class=\"axes\" font-size=\"11\" fill=\"" + std::string(svg::kInk) + "\">";
+  std::string out = "<g class=\"axes\" font-size=\"12\" fill=\"" + std::string(svg::kInk) + "\">";
   for (double t : y_ticks) {
     const double y = plot.y(t);
     out += "<line x1=\"" + coord(plot.x0()) + "\" x2=\"" + coord(plot.x1()) + "\" y1=\"" + coord(y) + "\" y2=\"" +

@@ -394,10 +394,21 @@ std::string series_section(const ResultSet& results, const Summary& summary, con
 std::string across_section(const Summary& summary) {
   std::string out = "<section id=\"across\"><h2>Across series</h2>";
   bool drawn = false;
-  for (const auto& a : summary.across) {
+  // The pooled comparison first; the per-condition ones folded below it.
+  std::vector<const AcrossSeries*> order;
+  for (const auto& a : summary.across)
+    if (a.scheme.empty()) order.insert(order.begin(), &a);
+    else order.push_back(&a);
+  bool folded = false;
+  for (const auto* ap : order) {
+    const AcrossSeries& a = *ap;
     const std::string svg = a.datasets >= 2 ? charts::rank_ladder(a) : "";
     if (svg.empty()) continue;
     drawn = true;
+    if (!a.scheme.empty() && !folded) {
+      out += "<details><summary>Each condition on its own</summary>";
+      folded = true;
+    }
     out += "<h3>" + (a.scheme.empty() ? std::string("All conditions pooled") : escape(a.scheme + " at " + percent(a.rate))) +
            "</h3><p class=\"facts\">" + std::to_string(a.datasets) + " data sets (series × condition) · Friedman χ² = " +
            escape(short_number(a.friedman_chi2)) + ", p = " + escape(short_number(a.friedman_p)) +
@@ -409,6 +420,7 @@ std::string across_section(const Summary& summary) {
            "by a bracket on the right differ by less than the critical difference: the test cannot tell them "
            "apart.</p></div>";
   }
+  if (folded) out += "</details>";
   if (!drawn)
     out += "<p class=\"empty\">Not enough series for a comparison across series: it needs mean ranks over at least "
            "two data sets and a critical difference.</p>";

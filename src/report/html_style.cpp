@@ -51,7 +51,7 @@ details > summary .sub { font-weight: 400; color: var(--muted); }
 .legend { display: flex; flex-wrap: wrap; gap: 4px 16px; font-size: 0.85rem; margin: 4px 0 8px; }
 .legend span { display: inline-flex; align-items: center; gap: 5px; }
 .swatch { flex: none; }
-.grid2 { display: grid; grid-template-columns: repeat(auto-fit, minmax(300px, 1fr)); gap: 10px; }
+.grid2 { display: grid; grid-template-columns: minmax(0, 660px); gap: 4px; }
 .empty { color: var(--muted); font-style: italic; }
 ul.warnings li { margin-bottom: 6px; }
 footer { margin-top: 40px; font-size: 0.8rem; color: var(--muted); border-top: 1px solid var(--line);

@@ -44,7 +44,8 @@ std::string line_chart(const LineChart& chart) {
   for (std::size_t l = 0; l < k; ++l) {
     const auto& line = chart.lines[l];
     // Whiskers side by side so that they do not hide each other.
-    const double dodge = chart.bands ? 0.0 : (static_cast<double>(l) - (static_cast<double>(k) - 1) / 2) * 7.0;
+    const double dodge =
+        chart.bands && m > 1 ? 0.0 : (static_cast<double>(l) - (static_cast<double>(k) - 1) / 2) * 9.0;
     std::vector<double> xs(m), ys(m, std::nan(""));
     for (std::size_t i = 0; i < m; ++i) {
       xs[i] = plot.x(positions[i]) + dodge;

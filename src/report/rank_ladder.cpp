@@ -57,9 +57,9 @@ std::string rank_ladder(const AcrossSeries& across) {
     const double a = plot.x(1), b = plot.x(std::min(1 + across.critical_difference, static_cast<double>(k)));
     out += "<path d=\"M" + coord(a) + " 12V20H" + coord(b) + "V12\" fill=\"none\" stroke=\"" + svg::kInk +
            "\" stroke-width=\"1.4\"/>";
-    out += "<text x=\"" + coord(b + 6) + "\" y=\"20\">critical difference " +
+    out += "<text x=\"" + coord(plot.x0() - 8) + "\" y=\"20\" text-anchor=\"end\">critical difference " +
            escape(svg::tick_label(across.critical_difference)) +
-           (1 + across.critical_difference > static_cast<double>(k) ? " (wider than the axis)" : "") + "</text>";
+           (1 + across.critical_difference > static_cast<double>(k) ? " (beyond the axis)" : "") + "</text>";
   }
   // Axis.
   out += "<line x1=\"" + coord(plot.x0()) + "\" x2=\"" + coord(plot.x1()) + "\" y1=\"" + coord(axis_y) + "\" y2=\"" +

@@ -56,13 +56,15 @@ std::string tick_label(double v) {
 }
 
 Style style(std::size_t index) {
+  // Chosen so that every pair stays apart in CAM02-UCS under simulated
+  // protan, deutan and tritan vision (reference/report/palette_check.py).
   static const Style styles[kStyles] = {
-      {"#2f5f8f", "", "circle"},         // deep blue
-      {"#d08a2e", "7 3", "square"},      // amber
-      {"#5fa8c6", "2 3", "triangle"},    // sky
-      {"#8d5b8c", "9 3 2 3", "diamond"},  // plum
-      {"#3e8c76", "4 2", "plus"},        // sea green
-      {"#7a7f2f", "1 3", "ring"},        // olive
+      {"#2f5f8f", "", "circle"},          // deep blue
+      {"#e0b040", "7 3", "square"},       // gold
+      {"#a0522d", "2 3", "triangle"},     // sienna
+      {"#7fb8a4", "9 3 2 3", "diamond"},  // mint
+      {"#b07aa1", "4 2", "plus"},         // mauve
+      {"#3e8c76", "1 3", "ring"},         // sea green
   };
   if (index < kStyles) return styles[index];
   return {"#a3aab0", "", "ring"};

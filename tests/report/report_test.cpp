@@ -1,0 +1,233 @@
+// The readable reports: the example block re-creates the run's masks and
+// fills, report.html is self-contained and carries what a reader needs,
+// methods.md and references.bib cite exactly what was used.
+#include <doctest/doctest.h>
+
+#include <cmath>
+#include <cstdlib>
+#include <fstream>
+#include <regex>
+
+#include "gapmark/experiment/examples.hpp"
+#include "gapmark/experiment/results_io.hpp"
+#include "gapmark/experiment/runner.hpp"
+#include "gapmark/report/html_charts.hpp"
+#include "gapmark/report/references.hpp"
+#include "gapmark/report/reporter.hpp"
+
+using namespace gapmark;
+
+namespace {
+
+struct Run {
+  ExperimentSpec spec;
+  LoadedData data;
+  ResultSet results;
+  Summary summary;
+};
+
+const Run& regression_run() {
+  static const Run run = [] {
+    Run r;
+    r.spec = load_spec(std::string(GAPMARK_SOURCE_DIR) + "/experiments/regression/regression.json");
+    r.data = load_data(r.spec);
+    RunOptions options;
+    options.threads = 2;
+    r.results = run_experiment(r.spec, options);
+    r.summary = summarize(r.results);
+    return r;
+  }();
+  return run;
+}
+
+std::string render(const std::string& reporter, const ResultSet& results) {
+  const auto* entry = ReporterRegistry::global().find(reporter);
+  REQUIRE(entry != nullptr);
+  return entry->make(ParamValues{})->render(results, summarize(results));
+}
+
+std::size_t count(const std::string& text, const std::string& what) {
+  std::size_t n = 0;
+  for (auto pos = text.find(what); pos != std::string::npos; pos = text.find(what, pos + 1)) ++n;
+  return n;
+}
+
+}  // namespace
+
+TEST_CASE("examples re-create the run's mask and fills: their RMSE equals the recorded one") {
+  const Run& run = regression_run();
+  // A window wider than the series keeps every point, so the RMSE over the
+  // window is the RMSE of the whole trial.
+  const auto examples = build_examples(run.spec, run.data, run.summary, {.window = 100000, .top = 3});
+  REQUIRE(examples["series"].size() == run.data.series.size());
+  const std::size_t rmse_col = run.results.column_index("rmse");
+  for (const auto& ex : examples["series"]) {
+    INFO(ex["series"].get<std::string>());
+    CHECK(ex["replicate"] == 0);
+    CHECK(ex["scheme"] == run.spec.schemes[0].scheme.label);
+    REQUIRE(ex["methods"].size() == 3);
+    const auto& truth = ex["truth"];
+    const auto& mask = ex["mask"];
+    REQUIRE(truth.size() == run.data.series[0].values.size());
+    std::size_t masked = 0;
+    for (const auto& m : mask) masked += m.get<int>();
+    for (const auto& m : ex["methods"]) {
+      const std::string method = m["method"];
+      double sq = 0;
+      std::size_t n = 0;
+      for (std::size_t i = 0; i < truth.size(); ++i)
+        if (mask[i] == 1) {
+          const double e = m["filled"][i].get<double>() - truth[i].get<double>();
+          sq += e * e;
+          ++n;
+        }
+      const TrialRecord* rec = nullptr;
+      for (const auto& t : run.results.trials)
+        if (t.series == ex["series"] && t.scheme == ex["scheme"] && t.rate == ex["rate"].get<double>() &&
+            t.replicate == 0 && t.method == method)
+          rec = &t;
+      REQUIRE(rec != nullptr);
+      CHECK(rec->masked == masked);
+      CHECK(std::sqrt(sq / static_cast<double>(n)) == doctest::Approx(rec->metrics[rmse_col]).epsilon(1e-12));
+    }
+    // The methods shown are the leading ones of that cell, in rank order.
+    for (const auto& g : run.summary.groups)
+      if (g.series == ex["series"] && g.scheme == ex["scheme"] && g.rate == ex["rate"].get<double>())
+        for (std::size_t k = 0; k < 3; ++k) CHECK(ex["methods"][k]["method"] == g.methods[k].method);
+    CHECK(ex["acf"]["lags"] == 48);  // twice the period of 24
+    CHECK(ex["acf"]["truth"].size() == 48);
+  }
+}
+
+TEST_CASE("the default window keeps 200 points around the most hidden points") {
+  const Run& run = regression_run();
+  const auto examples = build_examples(run.spec, run.data, run.summary);
+  for (const auto& ex : examples["series"]) {
+    CHECK(ex["length"] == 200);
+    CHECK(ex["truth"].size() == 200);
+    CHECK(ex["start"].get<std::size_t>() + 200 <= run.data.series[0].values.size());
+  }
+  // Deterministic: the same inputs give the same bytes.
+  CHECK(build_examples(run.spec, run.data, run.summary).dump() == examples.dump());
+}
+
+TEST_CASE("report.html is self-contained and readable without the JSON") {
+  const Run& run = regression_run();
+  ResultSet results = run.results;
+  results.examples = build_examples(run.spec, run.data, run.summary);
+  // Through results.json and back, as `gapmark report` does.
+  results = results_from_json(nlohmann::json::parse(results_to_json(results, run.summary).dump()), "round trip");
+  const std::string html = render("report-html", results);
+  CHECK(html.rfind("<!DOCTYPE html>", 0) == 0);
+  // Nothing from elsewhere: no scheme-relative or absolute URLs, no external
+  // sources, no scripts, no imports.
+  CHECK(html.find("http:") == std::string::npos);
+  CHECK(html.find("https:") == std::string::npos);
+  CHECK(html.find("src=") == std::string::npos);
+  CHECK(html.find("<script") == std::string::npos);
+  CHECK(html.find("@import") == std::string::npos);
+  CHECK(html.find("url(") == std::string::npos);
+  CHECK(std::regex_search(html, std::regex("=\"//")) == false);
+  // What a reader needs.
+  CHECK(html.find("How to read this") != std::string::npos);
+  CHECK(html.find("Filled values are estimates") != std::string::npos);
+  CHECK(html.find("synthetic masks can flatter a method") != std::string::npos);
+  CHECK(html.find("qualified person") != std::string::npos);
+  CHECK(count(html, "Recommended on this evidence") == 2);
+  CHECK(count(html, "Error against missing rate") == 2);
+  CHECK(count(html, "RMSE by gap length") == 6);       // every condition has the by_gap_length columns
+  CHECK(count(html, "Example window: true values") == 2);
+  CHECK(count(html, "Autocorrelation of the complete series") == 2);
+  CHECK(count(html, "<table>") == 6);
+  std::size_t across = 0;
+  for (const auto& a : run.summary.across)
+    across += a.datasets >= 2 && std::isfinite(a.critical_difference) && a.methods.size() >= 2;
+  CHECK(across >= 1);
+  // Rate charts per scheme, gap charts per condition, two example charts per series, rank charts.
+  CHECK(count(html, "<svg class=\"chart\"") == 2 * 2 + 6 + 2 * 2 + across);
+  CHECK(count(html, "Mean ranks across series") == across);
+  for (const auto& g : run.summary.groups) CHECK(html.find(svg::escape(g.methods.front().method)) != std::string::npos);
+  // Balanced markup for the elements we open.
+  for (const char* tag : {"section", "table", "svg", "details", "g"})
+    CHECK(count(html, std::string("<") + tag + " ") + count(html, std::string("<") + tag + ">") ==
+          count(html, std::string("</") + tag + ">"));
+  CHECK(html.find("Not enough series") == std::string::npos);
+  // Same inputs, same bytes.
+  CHECK(render("report-html", results) == html);
+  // For a look in a browser: GAPMARK_SAMPLE_REPORT=path/report.html keeps the page.
+  if (const char* keep = std::getenv("GAPMARK_SAMPLE_REPORT")) std::ofstream(keep) << html;
+}
+
+TEST_CASE("report.html without examples or across-series statistics still renders and says so") {
+  ResultSet one = regression_run().results;
+  std::erase_if(one.trials, [](const TrialRecord& t) {
+    return t.series != "chamber_humidity_pct" || t.scheme != "random" || t.rate != 0.1;
+  });
+  const std::string html = render("report-html", one);
+  CHECK(html.find("carry no example window") != std::string::npos);
+  CHECK(html.find("Not enough series") != std::string::npos);
+}
+
+TEST_CASE("methods.md states what a reviewer needs and cites only what was used") {
+  const Run& run = regression_run();
+  const std::string md = render("methods-md", run.results);
+  CHECK(md.find(run.spec.sha256) != std::string::npos);
+  CHECK(md.find("(31415)") != std::string::npos);          // the seed
+  CHECK(md.find("in 8 replicates") != std::string::npos);
+  CHECK(md.find("`chamber_humidity_pct` (cold_store_b.csv): 240 points, 240 observed, regular step PT1H") !=
+        std::string::npos);
+  CHECK(md.find("`blocks` (") != std::string::npos);
+  CHECK(md.find("α = 0.05") != std::string::npos);
+  // Every winner is named with its mean.
+  for (const auto& g : run.summary.groups)
+    CHECK(md.find(": `" + g.methods.front().method + "` had the lowest mean rmse") != std::string::npos);
+  // pchip is cited, methods not in the run are not.
+  CHECK(md.find("[fritsch1980] Fritsch") != std::string::npos);
+  CHECK(md.find("akima1970") == std::string::npos);
+  CHECK(md.find("durbin2012") == std::string::npos);
+  CHECK(md.find("[box2008]") != std::string::npos);  // the acf metric
+
+  const std::string bib = render("references-bib", run.results);
+  CHECK(count(bib, "\n@") == count(md, "\n- [") );  // one entry per listed reference
+  CHECK(bib.find("@article{fritsch1980,") != std::string::npos);
+  CHECK(bib.find("akima1970") == std::string::npos);
+  std::size_t open = 0, close = 0;
+  for (char c : bib) open += c == '{', close += c == '}';
+  CHECK(open == close);
+}
+
+TEST_CASE("every key in the reference table has an entry, and each entry is well formed") {
+  for (const auto& r : all_references()) {
+    INFO(r.key);
+    CHECK(r.bibtex.find("{" + r.key + ",") != std::string::npos);
+    CHECK(r.bibtex.find("year") != std::string::npos);
+    CHECK(find_reference(r.key) == &r);
+  }
+}
+
+// Worked example from Demšar (2006), section 3.2.4, as remembered: four
+// variants of a tree learner on 14 data sets with mean ranks 3.143, 2.000,
+// 2.893 and 1.964; CD = 1.25 at alpha = 0.05 (q = 2.569) and about 1.12 at
+// alpha = 0.10 (q = 2.291). At 0.05 no pair differs: one group of four; at
+// 0.10 the worst and the best differ.
+TEST_CASE("groups within the critical difference") {
+  const std::vector<double> sorted{1.964, 2.000, 2.893, 3.143};
+  using Groups = std::vector<std::pair<std::size_t, std::size_t>>;
+  CHECK(charts::cliques(sorted, 1.25) == Groups{{0, 3}});
+  CHECK(charts::cliques(sorted, 2.291 * std::sqrt(4.0 * 5.0 / (6.0 * 14.0))) == Groups{{0, 2}, {2, 3}});
+  CHECK(charts::cliques(sorted, 0.1) == Groups{{0, 1}});
+  CHECK(charts::cliques(sorted, std::nan("")).empty());
+}
+
+TEST_CASE("the rank chart draws a row per method and a bracket per group") {
+  AcrossSeries a;
+  a.methods = {"a", "b", "c", "d"};
+  a.mean_ranks = {3.143, 2.000, 2.893, 1.964};
+  a.datasets = 14;
+  a.critical_difference = 1.118;
+  const std::string svg = charts::rank_ladder(a);
+  CHECK(count(svg, "<circle") == 4);
+  CHECK(count(svg, "not distinguishable:") == 2);
+  CHECK(svg.find("not distinguishable: d, b, c") != std::string::npos);
+  CHECK(svg.find("not distinguishable: c, a") != std::string::npos);
+}
