@@ -135,9 +135,9 @@ TEST_CASE("report.html is self-contained and readable without the JSON") {
   CHECK(html.find("qualified person") != std::string::npos);
   CHECK(count(html, "Recommended on this evidence") == 2);
   CHECK(count(html, "Error against missing rate") == 2);
-  CHECK(count(html, "RMSE by gap length") == 6);       // every condition has the by_gap_length columns
-  CHECK(count(html, "Example window: true values") == 2);
-  CHECK(count(html, "Autocorrelation of the complete series") == 2);
+  CHECK(count(html, "<title>RMSE by gap length") == 6);  // every condition has the by_gap_length columns
+  CHECK(count(html, "<title>Example window: true values") == 2);
+  CHECK(count(html, "<title>Autocorrelation of the complete series") == 2);
   CHECK(count(html, "<table>") == 6);
   std::size_t across = 0;
   for (const auto& a : run.summary.across)
@@ -145,7 +145,7 @@ TEST_CASE("report.html is self-contained and readable without the JSON") {
   CHECK(across >= 1);
   // Rate charts per scheme, gap charts per condition, two example charts per series, rank charts.
   CHECK(count(html, "<svg class=\"chart\"") == 2 * 2 + 6 + 2 * 2 + across);
-  CHECK(count(html, "Mean ranks across series") == across);
+  CHECK(count(html, "<title>Mean ranks across series") == across);
   for (const auto& g : run.summary.groups) CHECK(html.find(svg::escape(g.methods.front().method)) != std::string::npos);
   // Balanced markup for the elements we open.
   for (const char* tag : {"section", "table", "svg", "details", "g"})

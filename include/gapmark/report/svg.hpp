@@ -46,6 +46,6 @@ std::string polyline(const std::vector<double>& xs, const std::vector<double>& y
 inline constexpr const char* kInk = "#2d3338";       ///< text, truth line
 inline constexpr const char* kGrid = "#e3e6e8";      ///< grid lines
 inline constexpr const char* kAxis = "#8a9399";      ///< axis lines and ticks
-inline constexpr const char* kShade = "#f1ede4";     ///< masked stretches
+inline constexpr const char* kShade = "#efe6d3";     ///< masked stretches
 
 }  // namespace gapmark::svg
