@@ -1,0 +1,3 @@
+#!/bin/sh
+# Test helper: ends itself with SIGKILL.
+kill -KILL $$
