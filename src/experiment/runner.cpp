@@ -3,11 +3,16 @@
 #include <atomic>
 #include <chrono>
 #include <cmath>
+#include <exception>
 #include <map>
+#include <optional>
+#include <unordered_set>
 #include <mutex>
 #include <thread>
 
 #include "gapmark/error.hpp"
+#include "gapmark/experiment/checkpoint.hpp"
+#include "gapmark/experiment/merge.hpp"
 #include "gapmark/hash.hpp"
 #include "gapmark/mask/mask_table.hpp"
 #include "gapmark/number_format.hpp"
@@ -50,6 +55,29 @@ TrialRecord blank_record(const ExperimentSpec& spec, const LoadedData& data, con
   return t;
 }
 
+bool needs_siblings(const ExperimentSpec& spec) {
+  for (const auto& m : spec.methods)
+    if (m.entry && m.entry->needs.siblings) return true;
+  return false;
+}
+
+/// A metric must give a finite value or NaN ("not applicable"). An infinite
+/// value (say, squared errors of values near 1e300 overflowing) is recorded
+/// as NaN with a warning that says why.
+void check_finite_metrics(const ExperimentSpec& spec, TrialRecord& rec, std::vector<Warning>& warnings) {
+  std::size_t offset = 0;
+  for (const auto& metric : spec.metrics) {
+    for (const auto& column : metric.impl->columns()) {
+      double& v = rec.metrics[offset++];
+      if (!std::isinf(v)) continue;
+      v = std::nan("");
+      add_warning(warnings, {"metric-not-finite", rec.method + " " + column.name,
+                             "the metric overflowed to infinity and is recorded as n/a",
+                             "rescale the data (other units) so that squared values stay far below 1e308"});
+    }
+  }
+}
+
 }  // namespace
 
 std::vector<TrialRecord> run_task(const ExperimentSpec& spec, const LoadedData& data, const Task& task,
@@ -81,17 +109,26 @@ std::vector<TrialRecord> run_task(const ExperimentSpec& spec, const LoadedData& 
     add_warning(warnings, {"few-masked-points", series.label() + " " + plan.scheme.label,
                            "only " + std::to_string(masked) + " points masked per replicate",
                            "raise the rate or use a longer series; errors from so few points are noisy"});
+  if (masked == 0) {
+    for (auto& r : records) {
+      r.status = "failed";
+      r.reason = "the mask hid no points (too few observed values for this rate): nothing to score";
+    }
+    return records;
+  }
   const std::vector<double> holed = apply_mask(series.values, mask);
 
   FillRequest fill_request;
   fill_request.values = holed;
   fill_request.axis = &series.axis;
   fill_request.period = series.period;
-  for (std::size_t s = 0; s < data.series.size(); ++s) {
-    if (s == task.series || data.dataset[s] != data.dataset[task.series]) continue;
-    fill_request.siblings.emplace_back(data.series[s].values);
-    fill_request.sibling_names.push_back(data.series[s].label());
-  }
+  // Siblings cost O(series) per task: gather them only when a method uses them.
+  if (needs_siblings(spec))
+    for (std::size_t s = 0; s < data.series.size(); ++s) {
+      if (s == task.series || data.dataset[s] != data.dataset[task.series]) continue;
+      fill_request.siblings.emplace_back(data.series[s].values);
+      fill_request.sibling_names.push_back(data.series[s].label());
+    }
 
   for (std::size_t m = 0; m < spec.methods.size(); ++m) {
     const auto& method = spec.methods[m];
@@ -138,6 +175,7 @@ std::vector<TrialRecord> run_task(const ExperimentSpec& spec, const LoadedData& 
       metric.impl->compute(score, std::span<double>(rec.metrics).subspan(offset, width));
       offset += width;
     }
+    check_finite_metrics(spec, rec, warnings);
   }
   return records;
 }
@@ -161,11 +199,40 @@ nlohmann::json describe_series(const ExperimentSpec& spec, const LoadedData& dat
 
 }  // namespace
 
-ResultSet run_experiment(const ExperimentSpec& spec, const RunOptions& options) {
-  const auto started = std::chrono::steady_clock::now();
-  const LoadedData data = load_data(spec);
-  const std::vector<Task> tasks = build_tasks(spec, data);
+std::size_t run_tasks(const ExperimentSpec& spec, const LoadedData& data, const std::vector<Task>& tasks,
+                      const std::vector<std::size_t>& todo, const RunOptions& options, const TaskSink& sink) {
+  std::atomic<std::size_t> next{0}, done{0};
+  std::atomic<bool> failed{false};
+  std::exception_ptr error;
+  std::mutex sink_mutex;
+  const auto stopping = [&] { return failed.load() || (options.stop && options.stop->load()); };
+  auto worker = [&] {
+    for (std::size_t i = next++; i < todo.size() && !stopping(); i = next++) {
+      try {
+        std::vector<Warning> warnings;
+        std::vector<TrialRecord> records = run_task(spec, data, tasks[todo[i]], warnings);
+        std::lock_guard lock(sink_mutex);
+        if (failed) return;
+        sink(todo[i], std::move(records), std::move(warnings));
+        ++done;
+      } catch (...) {
+        std::lock_guard lock(sink_mutex);
+        if (!failed.exchange(true)) error = std::current_exception();
+        return;
+      }
+    }
+  };
+  const unsigned threads =
+      std::max(1u, std::min<unsigned>(options.threads, static_cast<unsigned>(std::max<std::size_t>(todo.size(), 1))));
+  std::vector<std::thread> pool;
+  for (unsigned t = 1; t < threads; ++t) pool.emplace_back(worker);
+  worker();
+  for (auto& t : pool) t.join();
+  if (error) std::rethrow_exception(error);
+  return done;
+}
 
+ResultSet results_frame(const ExperimentSpec& spec, const LoadedData& data) {
   ResultSet results;
   for (const auto& m : spec.metrics)
     for (auto& c : m.impl->columns()) results.columns.push_back(c);
@@ -185,26 +252,28 @@ ResultSet run_experiment(const ExperimentSpec& spec, const RunOptions& options) 
                      {"replicates", spec.replicates},
                      {"holdout", spec.holdout},
                      {"inputs", inputs}};
+  return results;
+}
+
+ResultSet run_experiment(const ExperimentSpec& spec, const RunOptions& options) {
+  const auto started = std::chrono::steady_clock::now();
+  const LoadedData data = load_data(spec);
+  const std::vector<Task> tasks = build_tasks(spec, data);
+  ResultSet results = results_frame(spec, data);
 
   std::vector<std::vector<TrialRecord>> slots(tasks.size());
   std::vector<std::vector<Warning>> slot_warnings(tasks.size());
-  std::atomic<std::size_t> next{0}, done{0};
-  std::mutex progress_mutex;
-  auto worker = [&] {
-    for (std::size_t i = next++; i < tasks.size(); i = next++) {
-      slots[i] = run_task(spec, data, tasks[i], slot_warnings[i]);
-      const std::size_t d = ++done;
-      if (options.progress) {
-        std::lock_guard lock(progress_mutex);
-        options.progress(d, tasks.size());
-      }
-    }
-  };
-  const unsigned threads = std::max(1u, std::min<unsigned>(options.threads, static_cast<unsigned>(tasks.size())));
-  std::vector<std::thread> pool;
-  for (unsigned t = 1; t < threads; ++t) pool.emplace_back(worker);
-  worker();
-  for (auto& t : pool) t.join();
+  std::vector<std::size_t> todo(tasks.size());
+  for (std::size_t i = 0; i < todo.size(); ++i) todo[i] = i;
+  std::size_t finished = 0;
+  RunOptions inner = options;
+  inner.stop = nullptr;  // in memory, a run is all or nothing
+  run_tasks(spec, data, tasks, todo, inner,
+            [&](std::size_t task, std::vector<TrialRecord>&& records, std::vector<Warning>&& warnings) {
+              slots[task] = std::move(records);
+              slot_warnings[task] = std::move(warnings);
+              if (options.progress) options.progress(++finished, tasks.size());
+            });
 
   std::map<std::string, double> method_seconds;
   for (std::size_t i = 0; i < tasks.size(); ++i) {
@@ -218,8 +287,97 @@ ResultSet run_experiment(const ExperimentSpec& spec, const RunOptions& options) 
   for (const auto& [m, s] : method_seconds) per_method[m] = s;
   results.timing = {{"wall_seconds", std::chrono::duration<double>(std::chrono::steady_clock::now() - started).count()},
                     {"fill_seconds_by_method", per_method},
-                    {"threads", threads}};
+                    {"threads", std::max(1u, options.threads)}};
   return results;
+}
+
+namespace {
+
+/// Refuses to continue a checkpoint that is not of this run (one line each).
+void check_resumable(const CheckpointScan& scan, const nlohmann::json& header, const std::optional<Shard>& shard) {
+  const std::string where = scan.path.string();
+  if (scan.spec_sha256 != header.at("spec_sha256").get<std::string>())
+    throw InputError(where, "the checkpoint is of another spec (SHA-256 " + scan.spec_sha256.substr(0, 12) +
+                                "..., this spec " + header.at("spec_sha256").get<std::string>().substr(0, 12) +
+                                "...); start again without --resume, or give another --out");
+  const auto& old_context = scan.header.at("frame").at("context");
+  const auto& new_context = header.at("frame").at("context");
+  if (old_context.value("inputs", nlohmann::json()) != new_context.value("inputs", nlohmann::json()))
+    throw InputError(where, "the data files changed since the checkpoint was written (SHA-256 differs); "
+                            "start again without --resume");
+  if (old_context.value("version", "") != new_context.value("version", "") ||
+      old_context.value("commit", "") != new_context.value("commit", ""))
+    throw InputError(where, "the checkpoint was written by gapmark " + old_context.value("version", "?") + " (" +
+                                old_context.value("commit", "?") + "), this is " + version() + " (" + commit() +
+                                "); finish it with that build, or start again without --resume");
+  if (shard && *shard != scan.shard)
+    throw InputError(where, "the checkpoint is of shard " + scan.shard.text() + ", not " + shard->text());
+  nlohmann::json expected = header;
+  expected["shard"] = scan.header.at("shard");
+  if (expected != scan.header)
+    throw InputError(where, "the checkpoint does not match this run (its header differs); start again without --resume");
+}
+
+}  // namespace
+
+FolderRunStatus run_into_folder(const ExperimentSpec& spec, const RunOptions& options, const FolderRunOptions& folder) {
+  const auto started = std::chrono::steady_clock::now();
+  const LoadedData data = load_data(spec);
+  const std::vector<Task> tasks = build_tasks(spec, data);
+  const std::filesystem::path path = folder.dir / kCheckpointFile;
+
+  FolderRunStatus status;
+  status.shard = folder.shard.value_or(Shard{});
+  std::vector<char> done(tasks.size(), 0);
+  nlohmann::json header = checkpoint_header(spec, data, status.shard);
+  std::optional<CheckpointWriter> writer;
+  if (folder.resume) {
+    std::error_code ec;
+    if (!std::filesystem::exists(path, ec))
+      throw InputError(folder.dir.string(), "nothing to resume: no checkpoint (trials.jsonl) in this folder");
+    const CheckpointScan scan = read_checkpoint(path);
+    header["shard"] = {{"index", scan.shard.index}, {"count", scan.shard.count}};
+    check_resumable(scan, header, folder.shard);
+    status.shard = scan.shard;
+    for (std::size_t t : scan.done) done[t] = 1;
+    status.resumed = scan.done.size();
+    prepare_output_folder(folder.dir);
+    writer.emplace(CheckpointWriter::resume(path, scan.valid_bytes));
+  } else {
+    prepare_output_folder(folder.dir);
+    writer.emplace(CheckpointWriter::create(path, header));
+  }
+
+  std::vector<std::size_t> todo;
+  for (std::size_t t : status.shard.tasks(tasks.size()))
+    if (!done[t]) todo.push_back(t);
+  status.total = status.shard.size(tasks.size());
+  status.done = status.resumed;
+  if (options.progress) options.progress(status.done, status.total);
+  std::unordered_set<std::string> warned;
+  run_tasks(spec, data, tasks, todo, options,
+            [&](std::size_t task, std::vector<TrialRecord>&& records, std::vector<Warning>&& warnings) {
+              writer->append(task_line(task, records, warnings));
+              for (auto& w : warnings)
+                if (warned.insert(w.code + '\x1f' + w.where).second) status.warnings.push_back(std::move(w));
+              ++status.done;
+              if (options.progress) options.progress(status.done, status.total);
+            });
+  writer->sync();
+  writer.reset();
+  if (!status.complete()) return status;
+
+  if (!status.shard.whole()) {
+    status.written.push_back(write_shard_marker(folder.dir, header, status.total));
+    return status;
+  }
+  ResultSet results = merge_checkpoints({folder.dir});
+  results.timing["wall_seconds"] = std::chrono::duration<double>(std::chrono::steady_clock::now() - started).count();
+  results.timing["threads"] = std::max(1u, options.threads);
+  results.timing["resumed_tasks"] = status.resumed;
+  status.written = write_final_reports(results, folder.dir);
+  status.warnings = std::move(results.warnings);
+  return status;
 }
 
 }  // namespace gapmark

@@ -1,13 +1,19 @@
 #pragma once
 // Runs an experiment: loads the data, builds the task grid, masks each task
 // (seeded from its key), runs every method on the same mask, scores them,
-// and returns the records in canonical order.
+// and returns the records in canonical order -- in memory (run_experiment),
+// or streamed to a checkpoint in an output folder that can be resumed and
+// split across machines (run_into_folder).
+#include <atomic>
 #include <cstddef>
+#include <filesystem>
 #include <functional>
+#include <optional>
 #include <string>
 #include <vector>
 
 #include "gapmark/experiment/record.hpp"
+#include "gapmark/experiment/shard.hpp"
 #include "gapmark/experiment/spec.hpp"
 #include "gapmark/series.hpp"
 
@@ -17,6 +23,9 @@ struct RunOptions {
   unsigned threads = 1;
   /// Called after each finished task with (done, total); may be empty.
   std::function<void(std::size_t, std::size_t)> progress;
+  /// When set and it becomes true (a signal handler), workers start no new
+  /// task; the tasks in flight finish and are kept.
+  const std::atomic<bool>* stop = nullptr;
 };
 
 /// The series a spec names, loaded and checked, with their data set index.
@@ -40,6 +49,50 @@ std::string task_key(const ExperimentSpec& spec, const LoadedData& data, const T
 std::vector<TrialRecord> run_task(const ExperimentSpec& spec, const LoadedData& data,
                                   const Task& task, std::vector<Warning>& warnings);
 
+/// Runs the tasks `todo` (indices into `tasks`) on `options.threads` workers
+/// and hands each finished task to `sink` (one call at a time, in the order
+/// tasks finish). Stops early when `options.stop` turns true, or when a call
+/// throws (the first exception is rethrown after the workers end). Returns how
+/// many tasks finished.
+using TaskSink = std::function<void(std::size_t task, std::vector<TrialRecord>&& records,
+                                    std::vector<Warning>&& warnings)>;
+std::size_t run_tasks(const ExperimentSpec& spec, const LoadedData& data, const std::vector<Task>& tasks,
+                      const std::vector<std::size_t>& todo, const RunOptions& options, const TaskSink& sink);
+
+/// Everything of a ResultSet except trials, warnings and timing: context,
+/// series, columns, rank_by, alpha.
+ResultSet results_frame(const ExperimentSpec& spec, const LoadedData& data);
+
+/// Runs the whole grid in memory and returns the records in canonical order.
 ResultSet run_experiment(const ExperimentSpec& spec, const RunOptions& options = {});
+
+/// Where and how run_into_folder runs.
+struct FolderRunOptions {
+  std::filesystem::path dir;     ///< output folder: checkpoint, then reports or shard marker
+  bool resume = false;           ///< continue the checkpoint in `dir` instead of starting again
+  std::optional<Shard> shard;    ///< empty: the whole grid (or, on resume, the checkpoint's shard)
+};
+
+struct FolderRunStatus {
+  Shard shard;
+  std::size_t total = 0;     ///< tasks in this shard
+  std::size_t resumed = 0;   ///< found done in the checkpoint at the start
+  std::size_t done = 0;      ///< done now, counting those
+  std::vector<std::string> written;  ///< report files (whole runs) or the shard marker
+  std::vector<Warning> warnings;     ///< a whole run's; a shard's from this session's tasks
+  bool complete() const { return done == total; }
+};
+
+/// Runs an experiment into an output folder: each finished task is appended
+/// to the checkpoint at once (memory holds only the tasks in flight). When
+/// every task is done, a whole run reads the checkpoint back in task order
+/// and writes results.json and every report; a shard writes its marker
+/// instead (see merge.hpp). A resumed run refuses a checkpoint of another
+/// spec, other data or another build, and runs only the missing tasks; its
+/// results equal an uninterrupted run's byte for byte outside "timing".
+/// Report files and the shard marker from an earlier run in `dir` are
+/// removed first, so nothing in the folder looks complete until it is.
+FolderRunStatus run_into_folder(const ExperimentSpec& spec, const RunOptions& options,
+                                const FolderRunOptions& folder);
 
 }  // namespace gapmark

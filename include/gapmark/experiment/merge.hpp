@@ -1,0 +1,47 @@
+#pragma once
+// The end of a run: stored task results (the checkpoint of one run, or the
+// checkpoints of all shards of one) become the final results in canonical
+// task order, and every report is written from them. A single run and a
+// merge of its shards go through the same code, so they give the same bytes.
+#include <filesystem>
+#include <iosfwd>
+#include <string>
+#include <vector>
+
+#include "gapmark/experiment/checkpoint.hpp"
+#include "gapmark/experiment/record.hpp"
+#include "gapmark/experiment/summary.hpp"
+
+namespace gapmark {
+
+/// The file a finished shard leaves beside its checkpoint.
+inline constexpr const char* kShardMarkerFile = "shard.json";
+
+/// Reads finished checkpoints (folders or trials.jsonl files): one whole run,
+/// or every shard 1/N ... N/N of one run, in any order. Checks that they are
+/// runs of the same spec, data and build, that no shard is given twice or
+/// missing, and that each is finished; errors are one line naming the folder.
+/// Returns the results with trials in canonical order; "timing" holds the
+/// fill seconds per method.
+ResultSet merge_checkpoints(const std::vector<std::filesystem::path>& inputs);
+
+/// Writes every registered report into `dir`, each through a temporary file
+/// and a rename, results.json last. Gives the same files as write_reports,
+/// but writes results.json piece by piece (write_results_json), so memory
+/// stays near the size of the records even for a very large grid.
+std::vector<std::string> write_final_reports(const ResultSet& results, const std::filesystem::path& dir);
+
+/// The results-json reporter's text (results_to_json(...).dump(1) and a
+/// newline), written trial by trial and group by group.
+void write_results_json(std::ostream& out, const ResultSet& results, const Summary& summary);
+
+/// Writes `dir/shard.json` (atomically) for a finished shard whose
+/// checkpoint has `header` and holds `tasks` tasks; returns its path.
+std::string write_shard_marker(const std::filesystem::path& dir, const nlohmann::json& header, std::size_t tasks);
+
+/// Creates the output folder if needed (an InputError naming it when that is
+/// impossible) and removes the report files and shard marker an earlier run
+/// left there, so that nothing in it looks finished before this run is.
+void prepare_output_folder(const std::filesystem::path& dir);
+
+}  // namespace gapmark
