@@ -10,9 +10,12 @@
 // ratios, each bounded to [-23, 23] (ratios 1e-10 .. 1e10). BOBYQA (NLopt,
 // derivative-free, deterministic) maximises the concentrated likelihood from
 // each starting share in fit_starts(); the reference of a start is its
-// largest share. The best end point is then polished once with its own
-// largest variance as the reference, so that a reference whose estimate
-// goes to zero cannot pin the others to a bound.
+// largest share. These searches stop at tolerances 100 times coarser than
+// asked (they only need to find the best basin); the best end point is then
+// polished to full tolerance with its own largest variance as the reference,
+// so that a reference whose estimate goes to zero cannot pin the others to a
+// bound. A search stops when a step moves every log ratio by less than the x
+// tolerance or the log-likelihood by less than the f tolerance.
 #include <algorithm>
 #include <cmath>
 #include <exception>
@@ -27,6 +30,8 @@ namespace gapmark::state_space {
 namespace {
 
 constexpr double kBound = 23.0;
+/// The searches from the grid stop at tolerances this much coarser than the final polish.
+constexpr double kScreenFactor = 100.0;
 /// Returned to the optimiser where the likelihood cannot be evaluated.
 constexpr double kPenalty = 1e100;
 
@@ -64,7 +69,8 @@ struct Search {
   }
 
   /// One local search from `start` (variances in any common unit).
-  void run(const std::vector<double>& start, const FitOptions& options) {
+  void run(const std::vector<double>& start, double x_tolerance, double f_tolerance, double step,
+           std::size_t max_evaluations) {
     reference = static_cast<std::size_t>(std::max_element(start.begin(), start.end()) - start.begin());
     std::vector<double> x;
     for (std::size_t j = 0; j < start.size(); ++j)
@@ -74,9 +80,10 @@ struct Search {
     opt.set_lower_bounds(std::vector<double>(x.size(), -kBound));
     opt.set_upper_bounds(std::vector<double>(x.size(), kBound));
     opt.set_min_objective(&Search::callback, this);
-    opt.set_xtol_abs(options.x_tolerance);
-    opt.set_maxeval(static_cast<int>(options.max_evaluations));
-    opt.set_initial_step(1.0);
+    opt.set_xtol_abs(x_tolerance);
+    opt.set_ftol_abs(f_tolerance);
+    opt.set_maxeval(static_cast<int>(max_evaluations));
+    opt.set_initial_step(step);
     double value = 0;
     try {
       opt.optimize(x, value);
@@ -129,13 +136,14 @@ FitResult fit_variances(const StructuralModel& model, std::span<const double> y,
   Search search(model, z);
   FitResult result;
   for (const auto& share : fit_starts(model)) {
-    search.run(share, options);
+    search.run(share, kScreenFactor * options.x_tolerance, kScreenFactor * options.f_tolerance, 1.0,
+               options.max_evaluations);
     ++result.starts;
   }
   if (search.best_relative.empty())
     throw MethodFailure("the " + model.name() + " model's likelihood is not finite at any starting point");
   const std::vector<double> best_start = search.best_relative;
-  search.run(best_start, options);
+  search.run(best_start, options.x_tolerance, options.f_tolerance, 0.1, options.max_evaluations);
   ++result.starts;
 
   const LikelihoodParts parts = filter_likelihood(model, z, search.best_relative);

@@ -43,6 +43,28 @@ struct Record {
   std::size_t diffuse_steps = 0;             ///< steps 0 .. diffuse_steps-1 were in the diffuse phase
 };
 
+/// Sum of logs of positive numbers with one log call per ~1e150 of range
+/// rather than one per term (the filter's F_t are O(1) on standardised data).
+class LogSum {
+public:
+  void add(double x) {
+    product_ *= x;
+    if (product_ > 1e150 || product_ < 1e-150) flush();
+  }
+  double total() {
+    flush();
+    return sum_;
+  }
+
+private:
+  void flush() {
+    sum_ += std::log(product_);
+    product_ = 1;
+  }
+  double product_ = 1;
+  double sum_ = 0;
+};
+
 std::size_t first_observed(std::span<const double> y) {
   std::size_t t = 0;
   while (t < y.size() && std::isnan(y[t])) ++t;
@@ -61,24 +83,21 @@ struct Kernel {
   bool seasonal = model.period() != 0;
   Eigen::Index s0 = static_cast<Eigen::Index>(model.seasonal_start());
 
-  /// X Z' for a square X: column 0, plus column s0 with a period.
-  Vec times_design(const Mat& x) const {
-    Vec out = x.col(0);
+  /// out <- X Z' for a square X: column 0, plus column s0 with a period.
+  void times_design(const Mat& x, Vec& out) const {
+    out = x.col(0);
     if (seasonal) out += x.col(s0);
-    return out;
   }
 
-  /// X <- T X T' (X symmetric), through the structure.
+  /// X <- T X T', through the structure.
   void predict_cov(Mat& x) const {
     model.transition(x);
-    auto xt = x.transpose();
-    model.transition(xt);
+    model.times_transition_transposed(x);
   }
   /// X <- T' X T.
   void backward_cov(Mat& x) const {
     model.transition_transposed(x);
-    auto xt = x.transpose();
-    model.transition_transposed(xt);
+    model.times_transition(x);
   }
   void add_state_noise(Mat& x) const {
     for (std::size_t k = 1; k < variances.size(); ++k) {
@@ -117,12 +136,14 @@ struct Kernel {
     Mat p_inf = Mat::Identity(m, m);
     Eigen::Index rank = m;
     bool diffuse = true;
+    Vec ms = Vec::Zero(m), mi = Vec::Zero(m);
+    LogSum log_f, log_f_inf;
 
     for (std::size_t i = 0; i < steps; ++i) {
       const double yt = y[t0 + i];
       const bool observed = !std::isnan(yt);
       const double za = model.signal_of(a);
-      const Vec ms = times_design(p);
+      times_design(p, ms);
       const double zps = model.signal_of(ms);
       if (rec) {
         rec->za[i] = za;
@@ -130,7 +151,7 @@ struct Kernel {
         rec->m_star.col(static_cast<Eigen::Index>(i)) = ms;
       }
       if (diffuse) {
-        const Vec mi = times_design(p_inf);
+        times_design(p_inf, mi);
         const double zpi = model.signal_of(mi);
         if (rec) rec->m_inf.insert(rec->m_inf.end(), mi.data(), mi.data() + m);
         if (observed) {
@@ -139,7 +160,7 @@ struct Kernel {
           const double fs = zps + h;
           if (zpi > kDiffuseTolerance * p_inf.diagonal().maxCoeff()) {
             ++parts.diffuse;
-            parts.sum_log_f_inf += std::log(zpi);
+            log_f_inf.add(zpi);
             a += mi * (v / zpi);
             p.noalias() += (mi * (fs / (zpi * zpi)) - ms / zpi) * mi.transpose();
             p.noalias() -= (mi / zpi) * ms.transpose();
@@ -154,7 +175,7 @@ struct Kernel {
               parts.finite = false;
               return parts;
             }
-            parts.sum_log_f += std::log(fs);
+            log_f.add(fs);
             parts.sum_v2_over_f += v * v / fs;
             a += ms * (v / fs);
             p.noalias() -= (ms / fs) * ms.transpose();
@@ -176,7 +197,7 @@ struct Kernel {
           parts.finite = false;
           return parts;
         }
-        parts.sum_log_f += std::log(f);
+        log_f.add(f);
         parts.sum_v2_over_f += v * v / f;
         a += ms * (v / f);
         p.noalias() -= (ms / f) * ms.transpose();
@@ -191,6 +212,8 @@ struct Kernel {
       add_state_noise(p);
     }
     parts.prior_resolved = !diffuse;
+    parts.sum_log_f = log_f.total();
+    parts.sum_log_f_inf = log_f_inf.total();
     if (!std::isfinite(parts.sum_log_f) || !std::isfinite(parts.sum_v2_over_f) ||
         !std::isfinite(parts.sum_log_f_inf))
       parts.finite = false;
@@ -218,7 +241,7 @@ struct Kernel {
     Mat nn = Mat::Zero(m, m);
     Vec tmp = Vec::Zero(m), k = Vec::Zero(m), g = Vec::Zero(m);
     for (std::size_t i = steps; i-- > rec.diffuse_steps;) {
-      const Vec ms = rec.m_star.col(static_cast<Eigen::Index>(i));
+      const auto ms = rec.m_star.col(static_cast<Eigen::Index>(i));
       if (rec.kind[i] == StepKind::Regular) {
         const double f = rec.f[i];
         k = ms / f;
@@ -306,7 +329,8 @@ struct Kernel {
       auto ct = cov.transpose();
       model.transition_inverse(ct);
       out.mean[t] = model.signal_of(state);
-      const Vec cz = times_design(cov);
+      Vec cz = Vec::Zero(m);
+      times_design(cov, cz);
       out.variance[t] = std::max(0.0, model.signal_of(cz));
     }
     return out;

@@ -60,9 +60,11 @@ inline std::vector<double> r_reference(const std::string& case_name, const std::
   return out;
 }
 
-/// Invented data: a random walk level plus noise (and an optional sine season).
+/// Invented data: a random walk level plus noise (and an optional sine
+/// season). `signal`, when given, receives the series without the noise.
 inline std::vector<double> invented_series(std::size_t n, std::uint64_t seed, double level_sd, double noise_sd,
-                                           std::size_t period = 0, double season_amplitude = 0) {
+                                           std::size_t period = 0, double season_amplitude = 0,
+                                           std::vector<double>* signal = nullptr) {
   gapmark::Rng rng(seed);
   auto normal = [&] {
     const double u1 = 1.0 - rng.uniform(), u2 = rng.uniform();
@@ -75,6 +77,7 @@ inline std::vector<double> invented_series(std::size_t n, std::uint64_t seed, do
     double season = 0;
     if (period) season = season_amplitude * std::sin(6.283185307179586 * static_cast<double>(t % period) / period);
     y[t] = level + season + noise_sd * normal();
+    if (signal) signal->push_back(level + season);
   }
   return y;
 }

@@ -45,7 +45,8 @@ TEST_CASE("kalman is registered with its parameters") {
 }
 
 TEST_CASE("observed values come back unchanged; filled points get the smoothed signal and its variance") {
-  const auto truth = kalman_test::invented_series(300, 11, 0.5, 1.0);
+  std::vector<double> signal;
+  const auto truth = kalman_test::invented_series(300, 11, 0.5, 1.0, 0, 0, &signal);
   auto y = kalman_test::with_random_gaps(truth, 0.3, 12);
   for (std::size_t t = 100; t < 130; ++t) y[t] = kNaN;
   for (const std::string model : {"level", "trend"}) {
@@ -59,8 +60,12 @@ TEST_CASE("observed values come back unchanged; filled points get the smoothed s
     const auto st = gapmark::state_space::standardise(y);
     const auto fit = gapmark::state_space::fit_variances(m, st.z);
     const auto sm = gapmark::state_space::smooth_signal(m, st.z, fit.variances);
-    double sq = 0;
-    std::size_t filled = 0;
+    FillRequest request;
+    request.values = y;
+    const auto lines = gapmark::MethodRegistry::global()
+                           .bind(gapmark::CallSpec::parse("linear", "test"), "test")
+                           .impl->fill(request);
+    double sq = 0, sq_lines = 0;
     for (std::size_t t = 0; t < y.size(); ++t) {
       if (!std::isnan(y[t])) {
         CHECK(out.values[t] == y[t]);
@@ -70,11 +75,13 @@ TEST_CASE("observed values come back unchanged; filled points get the smoothed s
       CHECK(out.values[t] == doctest::Approx(st.centre + st.scale * sm.mean[t]).epsilon(1e-12));
       CHECK(out.variance[t] == doctest::Approx(st.scale * st.scale * sm.variance[t]).epsilon(1e-12));
       CHECK(out.variance[t] > 0);
-      sq += (out.values[t] - truth[t]) * (out.values[t] - truth[t]);
-      ++filled;
+      sq += (out.values[t] - signal[t]) * (out.values[t] - signal[t]);
+      sq_lines += (lines.values[t] - signal[t]) * (lines.values[t] - signal[t]);
     }
-    // The fill tracks the invented truth far better than the series' own spread.
-    CHECK(std::sqrt(sq / filled) < 0.5 * st.scale);
+    // On a noisy random walk the smoothed signal is closer to the invented
+    // signal (level without noise) than straight lines between the noisy
+    // neighbours are.
+    CHECK(sq < 0.8 * sq_lines);
   }
 }
 
@@ -92,21 +99,19 @@ TEST_CASE("variance=value adds the irregular variance to that of the signal") {
   const auto signal = run("variance=signal", y);
   const auto value = run("variance=value", y);
   CHECK(value.values[50] == signal.values[50]);
-  const auto st = gapmark::state_space::standardise(y);
   const auto fit = gapmark::state_space::fit_variances(gapmark::state_space::StructuralModel::local_level(), y);
   CHECK(value.variance[50] == doctest::Approx(signal.variance[50] + fit.variances[0]).epsilon(1e-6));
   CHECK(value.variance[10] == 0);
-  (void)st;
 }
 
 TEST_CASE("seasonal model follows a season through a gap of a whole period") {
-  const auto truth = kalman_test::invented_series(240, 41, 0.05, 0.2, 12, 3.0);
+  const auto truth = kalman_test::invented_series(96, 41, 0.05, 0.2, 6, 3.0);
   auto y = truth;
-  for (std::size_t t = 120; t < 132; ++t) y[t] = kNaN;
-  const auto seasonal = run("model=seasonal", y, 12);
-  const auto level = run("model=level", y, 12);
+  for (std::size_t t = 48; t < 54; ++t) y[t] = kNaN;
+  const auto seasonal = run("model=seasonal", y, 6);
+  const auto level = run("model=level", y, 6);
   double err_s = 0, err_l = 0;
-  for (std::size_t t = 120; t < 132; ++t) {
+  for (std::size_t t = 48; t < 54; ++t) {
     err_s += std::abs(seasonal.values[t] - truth[t]);
     err_l += std::abs(level.values[t] - truth[t]);
   }
@@ -189,7 +194,7 @@ TEST_CASE("huge and tiny magnitudes give the same fill, scaled") {
 }
 
 TEST_CASE("99% missing: no crash, no NaN inside the observed span") {
-  const auto truth = kalman_test::invented_series(5000, 81, 0.2, 0.5);
+  const auto truth = kalman_test::invented_series(3000, 81, 0.2, 0.5);
   const auto y = kalman_test::with_random_gaps(truth, 0.99, 82);
   for (const std::string model : {"level", "trend"}) {
     CAPTURE(model);
@@ -202,9 +207,9 @@ TEST_CASE("99% missing: no crash, no NaN inside the observed span") {
 }
 
 TEST_CASE("same input, same bytes") {
-  const auto y = kalman_test::with_random_gaps(kalman_test::invented_series(500, 91, 0.2, 0.5, 7, 1.0), 0.2, 92);
-  const auto a = run("model=seasonal", y, 7);
-  const auto b = run("model=seasonal", y, 7);
+  const auto y = kalman_test::with_random_gaps(kalman_test::invented_series(80, 91, 0.2, 0.5, 4, 1.0), 0.2, 92);
+  const auto a = run("model=seasonal", y, 4);
+  const auto b = run("model=seasonal", y, 4);
   CHECK(std::equal(a.values.begin(), a.values.end(), b.values.begin(),
                    [](double p, double q) { return std::memcmp(&p, &q, sizeof p) == 0; }));
   CHECK(std::equal(a.variance.begin(), a.variance.end(), b.variance.begin(),

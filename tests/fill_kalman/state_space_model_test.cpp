@@ -25,7 +25,7 @@ Eigen::MatrixXd sample(Eigen::Index rows, Eigen::Index cols, double seed) {
 
 }  // namespace
 
-TEST_CASE("structured T, T' and T^-1 products equal the dense definitions") {
+TEST_CASE("structured products with T, T' and T^-1, left and right, equal the dense definitions") {
   for (const auto& model : models()) {
     CAPTURE(model.name());
     const auto m = static_cast<Eigen::Index>(model.state_dim());
@@ -43,6 +43,15 @@ TEST_CASE("structured T, T' and T^-1 products equal the dense definitions") {
     b = a;
     model.transition_inverse(b);
     CHECK((t * b - a).cwiseAbs().maxCoeff() < 1e-12);
+
+    const Eigen::MatrixXd x = sample(4, m, 1.5);
+    Eigen::MatrixXd c = x;
+    model.times_transition_transposed(c);
+    CHECK((c - x * t.transpose()).cwiseAbs().maxCoeff() < 1e-12);
+
+    c = x;
+    model.times_transition(c);
+    CHECK((c - x * t).cwiseAbs().maxCoeff() < 1e-12);
   }
 }
 

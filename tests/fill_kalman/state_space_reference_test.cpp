@@ -63,8 +63,8 @@ TEST_CASE("diffuse log-likelihood at fixed variances matches statsmodels") {
     const double ours_ml = ss::filter_likelihood(model, y, ml).log_likelihood();
     const double ref_fixed = c.at("fixed_loglik").get<double>();
     const double ref_ml = c.at("ml_loglik").get<double>();
-    CHECK(ours_ml - ours_fixed == doctest::Approx(ref_ml - ref_fixed).epsilon(1e-7));
-    if (!std::isnan(y.front())) CHECK(ours_fixed == doctest::Approx(ref_fixed).epsilon(1e-9));
+    CHECK(std::abs((ours_ml - ours_fixed) - (ref_ml - ref_fixed)) < 1e-5);
+    if (!std::isnan(y.front())) CHECK(std::abs(ours_fixed - ref_fixed) < 1e-6);
   }
 }
 

@@ -72,6 +72,12 @@ public:
   /// a <- T^{-1} a (every model here has an invertible T).
   template <class D>
   void transition_inverse(Eigen::MatrixBase<D>& a) const;
+  /// x <- x T' (x: m columns), through whole-column operations.
+  template <class D>
+  void times_transition_transposed(Eigen::MatrixBase<D>& x) const;
+  /// x <- x T.
+  template <class D>
+  void times_transition(Eigen::MatrixBase<D>& x) const;
 
   /// Z a: the level, plus g_1 with a period.
   template <class D>
@@ -136,7 +142,8 @@ Standardised standardise(std::span<const double> y);
 
 struct FitOptions {
   std::size_t max_evaluations = 600;  ///< per local search
-  double x_tolerance = 1e-7;          ///< on log variance ratios
+  double x_tolerance = 1e-5;          ///< on log variance ratios
+  double f_tolerance = 1e-8;          ///< on the log-likelihood
 };
 
 struct FitResult {
@@ -201,6 +208,35 @@ void StructuralModel::transition_inverse(Eigen::MatrixBase<D>& a) const {
     for (Eigen::Index j = 0; j + 1 < k; ++j) a(s0 + j, c) = a(s0 + j + 1, c);
     a(s0 + k - 1, c) = -sum;
   }
+}
+
+template <class D>
+void StructuralModel::times_transition_transposed(Eigen::MatrixBase<D>& x) const {
+  // Column j of x T' is the sum over i of T(j, i) times column i of x.
+  if (slope_) x.col(0) += x.col(1);
+  if (seasonal_ == 0) return;
+  const Eigen::Index s0 = static_cast<Eigen::Index>(seasonal_start());
+  const Eigen::Index k = static_cast<Eigen::Index>(seasonal_);
+  // New g_1 column: minus the sum of all; the others shift right by one.
+  // The sum goes into the last column (whose old value is not needed), then
+  // a rotation brings it to the front.
+  for (Eigen::Index j = 0; j + 1 < k; ++j) x.col(s0 + k - 1) += x.col(s0 + j);
+  for (Eigen::Index j = k - 1; j >= 1; --j) x.col(s0 + j).swap(x.col(s0 + j - 1));
+  x.col(s0) = -x.col(s0);
+}
+
+template <class D>
+void StructuralModel::times_transition(Eigen::MatrixBase<D>& x) const {
+  // Column j of x T is the sum over i of T(i, j) times column i of x.
+  if (slope_) x.col(1) += x.col(0);
+  if (seasonal_ == 0) return;
+  const Eigen::Index s0 = static_cast<Eigen::Index>(seasonal_start());
+  const Eigen::Index k = static_cast<Eigen::Index>(seasonal_);
+  // New column j: old column j + 1 minus old column 0; the last: minus old
+  // column 0. Rotate old column 0 to the back first, then subtract it.
+  for (Eigen::Index j = 0; j + 1 < k; ++j) x.col(s0 + j).swap(x.col(s0 + j + 1));
+  for (Eigen::Index j = 0; j + 1 < k; ++j) x.col(s0 + j) -= x.col(s0 + k - 1);
+  x.col(s0 + k - 1) = -x.col(s0 + k - 1);
 }
 
 }  // namespace gapmark::state_space

@@ -1,0 +1,76 @@
+// Time per maximum-likelihood fit plus smoothing of the kalman method's
+// models on invented series (random-walk level, slope drift, a season and
+// noise, 10% of points missing at random, fixed seed) of 1,000, 10,000 and
+// 100,000 points. Prints one row per model and length; build in Release.
+//
+//   build-<name>/perf/bench_kalman [repeats]
+#include <algorithm>
+#include <chrono>
+#include <cmath>
+#include <cstdio>
+#include <cstdlib>
+#include <string>
+#include <vector>
+
+#include "gapmark/fill/state_space.hpp"
+#include "gapmark/rng.hpp"
+
+namespace ss = gapmark::state_space;
+
+namespace {
+
+std::vector<double> invented(std::size_t n, std::size_t period, std::uint64_t seed) {
+  gapmark::Rng rng(seed);
+  auto normal = [&] {
+    const double u1 = 1.0 - rng.uniform(), u2 = rng.uniform();
+    return std::sqrt(-2.0 * std::log(u1)) * std::cos(6.283185307179586 * u2);
+  };
+  std::vector<double> y(n);
+  double level = 50, slope = 0;
+  for (std::size_t t = 0; t < n; ++t) {
+    slope += 0.001 * normal();
+    level += slope + 0.2 * normal();
+    const double season = period ? 2.0 * std::sin(6.283185307179586 * static_cast<double>(t % period) / period) : 0;
+    y[t] = rng.bernoulli(0.1) ? std::nan("") : level + season + 0.5 * normal();
+  }
+  return y;
+}
+
+}  // namespace
+
+int main(int argc, char** argv) {
+  const int repeats = argc > 1 ? std::max(1, std::atoi(argv[1])) : 3;
+  std::printf("%-14s %8s %12s %12s %8s %8s %12s\n", "model", "n", "fit ms", "smooth ms", "evals", "starts",
+              "us per eval");
+  struct Case {
+    ss::StructuralModel model;
+    std::size_t period;
+  };
+  const std::vector<Case> cases{{ss::StructuralModel::local_level(), 0},
+                                {ss::StructuralModel::local_linear_trend(), 0},
+                                {ss::StructuralModel::basic_structural(4), 4},
+                                {ss::StructuralModel::basic_structural(12), 12}};
+  for (const auto& c : cases) {
+    for (std::size_t n : {1000, 10000, 100000}) {
+      const auto y = invented(n, c.period, 20240 + n);
+      double fit_ms = 1e300, smooth_ms = 1e300;
+      ss::FitResult fit;
+      const int reps = n >= 100000 && c.period ? 1 : repeats;  // best of `reps` runs
+      for (int r = 0; r < reps; ++r) {
+        auto start = std::chrono::steady_clock::now();
+        fit = ss::fit_variances(c.model, y);
+        auto now = std::chrono::steady_clock::now();
+        fit_ms = std::min(fit_ms, std::chrono::duration<double, std::milli>(now - start).count());
+        start = now;
+        const auto smooth = ss::smooth_signal(c.model, y, fit.variances);
+        now = std::chrono::steady_clock::now();
+        smooth_ms = std::min(smooth_ms, std::chrono::duration<double, std::milli>(now - start).count());
+        if (smooth.mean.size() != n) return 1;
+      }
+      std::printf("%-14s %8zu %12.2f %12.2f %8zu %8zu %12.2f\n", c.model.name().c_str(), n, fit_ms, smooth_ms,
+                  fit.evaluations, fit.starts, 1000.0 * fit_ms / static_cast<double>(fit.evaluations));
+      std::fflush(stdout);
+    }
+  }
+  return 0;
+}
