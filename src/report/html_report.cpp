@@ -190,7 +190,18 @@ std::string recommendation_card(const ResultSet& results, const std::vector<cons
     }
     out += "</li>";
   }
-  return out + "</ul></div>";
+  out += "</ul>";
+  // With n replicates the smallest two-sided p a paired signed-rank test can
+  // reach is 2 / 2^n: below alpha only from some n on.
+  std::size_t fewest = SIZE_MAX;
+  for (const auto* g : groups) fewest = std::min(fewest, g->replicates);
+  std::size_t needed = 1;
+  while (std::ldexp(2.0, -static_cast<int>(needed)) >= results.alpha && needed < 64) ++needed;
+  if (fewest < needed)
+    out += "<p class=\"facts\">With " + std::to_string(fewest) +
+           " replicates the paired test cannot tell any two methods apart at α = " + short_number(results.alpha) +
+           ", so the ties above say little; use at least " + std::to_string(needed) + " replicates.</p>";
+  return out + "</div>";
 }
 
 /// Error against missing rate: one chart per scheme of the series.

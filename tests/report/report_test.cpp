@@ -152,6 +152,7 @@ TEST_CASE("report.html is self-contained and readable without the JSON") {
     CHECK(count(html, std::string("<") + tag + " ") + count(html, std::string("<") + tag + ">") ==
           count(html, std::string("</") + tag + ">"));
   CHECK(html.find("Not enough series") == std::string::npos);
+  CHECK(html.find("the paired test cannot tell any two methods apart") == std::string::npos);  // 8 replicates
   // Same inputs, same bytes.
   CHECK(render("report-html", results) == html);
   // For a look in a browser: GAPMARK_SAMPLE_REPORT=path/report.html keeps the page.
@@ -166,6 +167,10 @@ TEST_CASE("report.html without examples or across-series statistics still render
   const std::string html = render("report-html", one);
   CHECK(html.find("carry no example window") != std::string::npos);
   CHECK(html.find("Not enough series") != std::string::npos);
+  // Five replicates: 2 / 2^5 > 0.05, the page warns that its ties say little.
+  std::erase_if(one.trials, [](const TrialRecord& t) { return t.replicate >= 5; });
+  CHECK(render("report-html", one).find("With 5 replicates the paired test cannot tell any two methods apart") !=
+        std::string::npos);
 }
 
 TEST_CASE("methods.md states what a reviewer needs and cites only what was used") {
