@@ -32,6 +32,10 @@ namespace {
 constexpr double kBound = 23.0;
 /// The searches from the grid stop at tolerances this much coarser than the final polish.
 constexpr double kScreenFactor = 100.0;
+/// Innovations below this (sum of v^2/F, unit variances, standardised data) mean an exact fit...
+constexpr double kExactFit = 1e-24;
+/// ...for which each variance is set to this share of the data variance.
+constexpr double kExactFitVariance = 1e-12;
 /// Returned to the optimiser where the likelihood cannot be evaluated.
 constexpr double kPenalty = 1e100;
 
@@ -133,8 +137,21 @@ FitResult fit_variances(const StructuralModel& model, std::span<const double> y,
   const double scale = data.scale;
   const std::vector<double>& z = data.z;
 
-  Search search(model, z);
   FitResult result;
+  // Data the model follows exactly (a straight line for the trend model, a
+  // line plus a fixed season for the seasonal one) leave no innovation at
+  // all, whatever the variances; every estimate is then zero. A negligible
+  // common variance keeps the filter defined and the smoother exact.
+  const std::vector<double> equal(model.variance_count(), 1.0);
+  const LikelihoodParts probe = filter_likelihood(model, z, equal);
+  if (probe.finite && probe.prior_resolved && probe.effective() > 0 && probe.sum_v2_over_f < kExactFit) {
+    result.variances.assign(model.variance_count(), kExactFitVariance * scale * scale);
+    result.log_likelihood = std::numeric_limits<double>::infinity();
+    result.evaluations = 1;
+    return result;
+  }
+
+  Search search(model, z);
   for (const auto& share : fit_starts(model)) {
     search.run(share, kScreenFactor * options.x_tolerance, kScreenFactor * options.f_tolerance, 1.0,
                options.max_evaluations);

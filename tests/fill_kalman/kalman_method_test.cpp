@@ -175,6 +175,24 @@ TEST_CASE("a constant series is filled with its constant and variance zero") {
   }
 }
 
+TEST_CASE("a series the model follows exactly is filled exactly") {
+  // A straight line for model=trend; a line plus a fixed season for model=seasonal.
+  std::vector<double> line(60), seasonal(60);
+  for (std::size_t t = 0; t < 60; ++t) {
+    line[t] = 3.0 + 0.5 * static_cast<double>(t);
+    seasonal[t] = line[t] + (t % 4 == 0 ? 2.0 : t % 4 == 1 ? -1.0 : t % 4 == 2 ? 0.5 : -1.5);
+  }
+  auto y = line, ys = seasonal;
+  for (std::size_t t : {5, 6, 7, 30, 41}) y[t] = ys[t] = kNaN;
+  const auto out = run("model=trend", y);
+  const auto outs = run("model=seasonal", ys, 4);
+  for (std::size_t t : {5, 6, 7, 30, 41}) {
+    CHECK(out.values[t] == doctest::Approx(line[t]).epsilon(1e-9));
+    CHECK(outs.values[t] == doctest::Approx(seasonal[t]).epsilon(1e-9));
+    CHECK(out.variance[t] < 1e-9);
+  }
+}
+
 TEST_CASE("huge and tiny magnitudes give the same fill, scaled") {
   auto y = kalman_test::invented_series(150, 71, 0.4, 0.6);
   y = kalman_test::with_random_gaps(y, 0.2, 72);

@@ -158,6 +158,8 @@ struct FitResult {
 /// reference one, searched by BOBYQA (NLopt) from a fixed grid of starting
 /// shares (see fit_starts). Deterministic. Throws MethodFailure when the
 /// likelihood cannot be evaluated anywhere or too few observations remain.
+/// Data that the model follows exactly (no innovation at all) get every
+/// variance set to 1e-12 of the data variance and a log-likelihood of +inf.
 FitResult fit_variances(const StructuralModel& model, std::span<const double> y,
                         const FitOptions& options = {});
 
