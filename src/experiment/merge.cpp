@@ -223,8 +223,10 @@ void write_results_json(std::ostream& out, const ResultSet& results, const Summa
 
 namespace {
 
-/// Streams results.json into a temporary file beside `path`; returns its name.
-fs::path stream_results_to_temp(const fs::path& path, const ResultSet& results, const Summary& summary) {
+/// Writes a file through a temporary name beside `path`: `write` fills the
+/// stream; the data are flushed to disk. Returns the temporary name, to be
+/// renamed once every file of the set is written. Errors name `path`.
+fs::path write_temp(const fs::path& path, const std::function<void(std::ostream&)>& write) {
   fs::path temp = path;
   temp += ".tmp-" + std::to_string(::getpid());
   const auto fail = [&](const std::string& what) {
@@ -239,7 +241,7 @@ fs::path stream_results_to_temp(const fs::path& path, const ResultSet& results, 
     std::vector<char> buffer(1 << 20);
     out.rdbuf()->pubsetbuf(buffer.data(), static_cast<std::streamsize>(buffer.size()));
     errno = 0;
-    write_results_json(out, results, summary);
+    write(out);
     out.flush();
     if (!out) fail("cannot write");
   }
@@ -257,44 +259,43 @@ fs::path stream_results_to_temp(const fs::path& path, const ResultSet& results, 
 
 std::vector<std::string> write_final_reports(const ResultSet& results, const fs::path& dir) {
   const Summary summary = summarize(results);
-  // Render every other report first, so that a failing reporter leaves no file.
-  std::vector<std::pair<fs::path, std::string>> outputs;
-  bool json_wanted = false;
-  for (const auto* entry : ReporterRegistry::global().list()) {
-    auto reporter = entry->make(ParamValues{});
-    if (reporter->file_name() == "results.json") {
-      json_wanted = true;
-      continue;
-    }
-    outputs.emplace_back(dir / reporter->file_name(), reporter->render(results, summary));
-  }
-  std::vector<std::string> written;
-  const fs::path json_path = dir / "results.json";
-  fs::path json_temp;
-  if (json_wanted) {
-    std::error_code ec;
-    fs::create_directories(dir, ec);
-    if (ec) throw InputError(dir.string(), "cannot create the output folder: " + ec.message());
-    json_temp = stream_results_to_temp(json_path, results, summary);
-  }
+  std::error_code ec;
+  fs::create_directories(dir, ec);
+  if (ec) throw InputError(dir.string(), "cannot create the output folder: " + ec.message());
+  // Each report goes to a temporary file as soon as it is rendered (memory
+  // holds one report at a time); the names are switched only when all are
+  // written, results.json last, so a failure leaves no report behind.
+  std::vector<std::pair<fs::path, fs::path>> staged;  // (temporary, final)
   try {
-    for (const auto& [path, content] : outputs) {
-      write_file_atomically(path, content);
-      written.push_back(path.string());
+    bool json_wanted = false;
+    for (const auto* entry : ReporterRegistry::global().list()) {
+      auto reporter = entry->make(ParamValues{});
+      if (reporter->file_name() == "results.json") {
+        json_wanted = true;
+        continue;
+      }
+      const fs::path path = dir / reporter->file_name();
+      const std::string text = reporter->render(results, summary);
+      staged.emplace_back(write_temp(path, [&](std::ostream& out) { out << text; }), path);
+    }
+    if (json_wanted) {
+      const fs::path path = dir / "results.json";
+      staged.emplace_back(write_temp(path, [&](std::ostream& out) { write_results_json(out, results, summary); }),
+                          path);
     }
   } catch (...) {
-    std::error_code ec;
-    if (!json_temp.empty()) fs::remove(json_temp, ec);
+    for (const auto& [temp, path] : staged) fs::remove(temp, ec);
     throw;
   }
-  if (json_wanted) {
-    std::error_code ec;
-    fs::rename(json_temp, json_path, ec);
+  std::vector<std::string> written;
+  for (std::size_t i = 0; i < staged.size(); ++i) {
+    fs::rename(staged[i].first, staged[i].second, ec);
     if (ec) {
-      fs::remove(json_temp, ec);
-      throw InputError(json_path.string(), "cannot write: " + ec.message());
+      const std::string why = ec.message();
+      for (std::size_t k = i; k < staged.size(); ++k) fs::remove(staged[k].first, ec);
+      throw InputError(staged[i].second.string(), "cannot write: " + why);
     }
-    written.push_back(json_path.string());
+    written.push_back(staged[i].second.string());
   }
   return written;
 }

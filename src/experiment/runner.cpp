@@ -320,13 +320,16 @@ void check_resumable(const CheckpointScan& scan, const nlohmann::json& header, c
 
 }  // namespace
 
-FolderRunStatus run_into_folder(const ExperimentSpec& spec, const RunOptions& options, const FolderRunOptions& folder) {
-  const auto started = std::chrono::steady_clock::now();
+namespace {
+
+/// The running part of run_into_folder: loads the data, opens (or resumes)
+/// the checkpoint and runs the shard's missing tasks. The data are released
+/// when it returns, before the results are read back. Returns the header.
+nlohmann::json run_missing_tasks(const ExperimentSpec& spec, const RunOptions& options,
+                                 const FolderRunOptions& folder, FolderRunStatus& status) {
   const LoadedData data = load_data(spec);
   const std::vector<Task> tasks = build_tasks(spec, data);
   const std::filesystem::path path = folder.dir / kCheckpointFile;
-
-  FolderRunStatus status;
   status.shard = folder.shard.value_or(Shard{});
   std::vector<char> done(tasks.size(), 0);
   nlohmann::json header = checkpoint_header(spec, data, status.shard);
@@ -364,9 +367,16 @@ FolderRunStatus run_into_folder(const ExperimentSpec& spec, const RunOptions& op
               if (options.progress) options.progress(status.done, status.total);
             });
   writer->sync();
-  writer.reset();
-  if (!status.complete()) return status;
+  return header;
+}
 
+}  // namespace
+
+FolderRunStatus run_into_folder(const ExperimentSpec& spec, const RunOptions& options, const FolderRunOptions& folder) {
+  const auto started = std::chrono::steady_clock::now();
+  FolderRunStatus status;
+  const nlohmann::json header = run_missing_tasks(spec, options, folder, status);
+  if (!status.complete()) return status;
   if (!status.shard.whole()) {
     status.written.push_back(write_shard_marker(folder.dir, header, status.total));
     return status;

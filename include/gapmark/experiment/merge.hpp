@@ -25,10 +25,12 @@ inline constexpr const char* kShardMarkerFile = "shard.json";
 /// fill seconds per method.
 ResultSet merge_checkpoints(const std::vector<std::filesystem::path>& inputs);
 
-/// Writes every registered report into `dir`, each through a temporary file
-/// and a rename, results.json last. Gives the same files as write_reports,
-/// but writes results.json piece by piece (write_results_json), so memory
-/// stays near the size of the records even for a very large grid.
+/// Writes every registered report into `dir`: the same files as
+/// write_reports, but each report goes to a temporary file as soon as it is
+/// rendered and results.json is written piece by piece (write_results_json),
+/// so memory holds the records and one report at a time even for a very
+/// large grid. The files get their names only when all are written
+/// (results.json last); on failure none does.
 std::vector<std::string> write_final_reports(const ResultSet& results, const std::filesystem::path& dir);
 
 /// The results-json reporter's text (results_to_json(...).dump(1) and a
