@@ -15,6 +15,9 @@ int main(int argc, char** argv) {
   app.require_subcommand(1);
   Action action;
   add_run(app, action);
+  add_profile(app, action);
+  add_regularize(app, action);
+  add_quick(app, action);
   add_merge(app, action);
   add_report(app, action);
   add_compare(app, action);

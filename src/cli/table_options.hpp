@@ -1,11 +1,16 @@
 #pragma once
-// Options shared by the commands that read one wide CSV.
+// Options shared by the commands that read one table: a wide CSV, or with
+// --group a long-layout CSV (group columns, time, value columns) whose
+// groups are laid side by side as columns "variable[site=A]".
 #include <CLI/CLI.hpp>
 #include <optional>
 #include <string>
 #include <vector>
 
+#include "gapmark/data/long_layout.hpp"
+#include "gapmark/data/raw_table.hpp"
 #include "gapmark/table_io.hpp"
+#include "gapmark/wide_write.hpp"
 
 namespace gapmark::cli {
 
@@ -15,21 +20,49 @@ struct TableOptions {
   std::string time_column;
   std::string step;
   std::size_t period = 0;
+  std::vector<std::string> group;
 
   void declare(CLI::App& cmd) {
-    cmd.add_option("INPUT", input, "Wide CSV: a time column, then one column per variable")->required();
+    cmd.add_option("INPUT", input, "Wide CSV: a time column, then one column per variable (long layout with --group)")->required();
     cmd.add_option("--column,-c", columns, "A column to work on (repeat; default: every variable column)");
     cmd.add_option("--time-column", time_column, "Name of the time column (default: the first column)");
     cmd.add_option("--step", step, "The time step as an ISO 8601 duration (PT1H, P1D, P1M) or an integer (default: inferred)");
     cmd.add_option("--period", period, "Seasonal period in steps (default: 24 for hourly, 7 for daily, 12 for monthly ...)");
+    cmd.add_option("--group", group,
+                   "Group columns of a long-layout CSV (COL or COL,COL): each group x variable is worked on as the "
+                   "series 'variable[COL=value]'");
   }
 
-  WideTable read() const {
-    WideReadOptions o;
+  /// Reads the table. With --group the long layout is read and its groups
+  /// laid side by side; only the --column variables are kept, and `columns`
+  /// is then cleared, so every column of the returned table is selected.
+  WideTable read() {
+    std::optional<Step> parsed;
+    if (!step.empty()) parsed = Step::parse(step, "--step");
+    const auto groups = data::split_names(group);
+    if (groups.empty()) {
+      WideReadOptions o;
+      o.time_column = time_column;
+      o.step = parsed;
+      return read_wide_csv(input, o);
+    }
+    data::LongReadOptions o;
     o.time_column = time_column;
-    if (!step.empty()) o.step = Step::parse(step, "--step");
-    return read_wide_csv(input, o);
+    o.group_columns = groups;
+    o.value_columns = columns;
+    o.step = parsed;
+    long_layout_ = data::long_to_wide(read_csv(input), o);
+    columns.clear();
+    return long_layout_->table;
   }
+
+  /// The table as CSV in the layout it was read in (long with --group).
+  std::string write(const WideTable& table, const std::vector<ExtraColumn>& extra = {}) const {
+    return long_layout_ ? data::long_csv(*long_layout_, table, extra) : write_wide_csv(table, extra);
+  }
+
+private:
+  std::optional<data::LongAsWide> long_layout_;
 };
 
 }  // namespace gapmark::cli

@@ -16,7 +16,7 @@ using nlohmann::json;
 const std::set<std::string> kTopLevel = {"name",    "seed",    "replicates", "holdout", "output",
                                          "data",    "schemes", "methods",    "metrics", "rank_by",
                                          "alpha",   "description"};
-const std::set<std::string> kDataKeys = {"file", "columns", "time_column", "step", "period", "periods"};
+const std::set<std::string> kDataKeys = {"file", "columns", "time_column", "step", "period", "periods", "groups"};
 
 struct Ctx {
   std::string source;
@@ -66,7 +66,7 @@ DataSource parse_data(const json& v, const Ctx& ctx, const std::string& pointer,
   for (const auto& [key, value] : obj.items())
     if (!kDataKeys.count(key))
       throw InputError(ctx.at(pointer + "/" + key),
-                       "unknown field (known: file, columns, time_column, step, period, periods)");
+                       "unknown field (known: file, columns, time_column, step, period, periods, groups)");
   d.label = get_string(require(obj, "file", ctx, pointer), ctx, pointer + "/file");
   d.path = std::filesystem::path(d.label).is_absolute() ? std::filesystem::path(d.label)
                                                          : base_dir / d.label;
@@ -86,6 +86,11 @@ DataSource parse_data(const json& v, const Ctx& ctx, const std::string& pointer,
     for (const auto& [column, value] : it->items())
       d.column_periods[column] =
           static_cast<std::size_t>(get_integer(value, ctx, pointer + "/periods/" + column, 0, 1000000));
+  }
+  if (auto it = obj.find("groups"); it != obj.end()) {
+    const auto& groups = get_array(*it, ctx, pointer + "/groups");
+    for (std::size_t i = 0; i < groups.size(); ++i)
+      d.groups.push_back(get_string(groups[i], ctx, pointer + "/groups/" + std::to_string(i)));
   }
   return d;
 }

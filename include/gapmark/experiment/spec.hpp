@@ -26,6 +26,9 @@ struct DataSource {
   std::optional<Step> step;           ///< empty: inferred
   std::size_t period = 0;             ///< 0: from the step (24 for PT1H ...)
   std::map<std::string, std::size_t> column_periods;  ///< per-column periods, over `period`
+  /// Group columns of a long-layout file (group columns, time, value
+  /// columns); empty: a wide file. Each group × column becomes a series.
+  std::vector<std::string> groups;
 };
 
 struct SchemePlan {

@@ -1,0 +1,102 @@
+#pragma once
+// The one-command answer: from a variable's profile, a default experiment
+// whose masks mimic the variable's own gaps, a method set chosen by the kind
+// of variable, and a recommendation read from the summary.
+#include <cstddef>
+#include <cstdint>
+#include <nlohmann/json.hpp>
+#include <optional>
+#include <span>
+#include <string>
+#include <vector>
+
+#include "gapmark/data/profile.hpp"
+#include "gapmark/experiment/record.hpp"
+#include "gapmark/experiment/summary.hpp"
+
+namespace gapmark::data {
+
+/// What a variable measures, which decides what an absent record means.
+enum class VariableKind {
+  Count,   ///< counts and event totals: absent usually means zero
+  Level,   ///< a reading of a state that holds between readings
+  Smooth,  ///< a smooth physical quantity
+};
+
+VariableKind parse_kind(const std::string& text, const std::string& where);
+std::string kind_name(VariableKind kind);
+
+struct KindGuess {
+  VariableKind kind = VariableKind::Level;
+  std::string reason;
+};
+/// A rule of thumb (common practice, no source): non-negative values that
+/// are whole numbers or at least 30% zeros are a count; otherwise smooth when
+/// the lag-1 differences vary far less than the values (variance ratio below
+/// 0.2), else a level.
+KindGuess guess_kind(std::span<const double> values);
+
+/// The default methods for a kind; seasonal ones only with a period.
+std::vector<std::string> default_methods(VariableKind kind, bool has_period);
+
+/// What an absent record means for this kind, and what to do about it.
+std::string kind_caution(VariableKind kind, const std::string& variable);
+
+struct QuickPlanInput {
+  std::string data_file;                   ///< as the spec should name it (relative to the spec's folder)
+  std::string column;
+  std::vector<std::string> groups;
+  std::string time_column;
+  std::optional<Step> step;
+  VariableKind kind = VariableKind::Level;
+  int replicates = 10;
+  std::uint64_t seed = 1;
+};
+
+/// The masks and their numbers, as planned from the profile.
+struct QuickPlan {
+  nlohmann::json spec;
+  double observed_missing = 0;   ///< share of points missing over the variable's series
+  double mask_rate = 0;          ///< observed_missing clamped to [0.05, 0.5]
+  double mean_gap = 0;           ///< mean length of the real gaps (0 when none)
+  bool replay = false;           ///< real gaps to learn from
+  std::size_t holdout = 0;
+  std::size_t period = 0;
+  std::vector<std::string> methods;
+};
+
+/// Plans the experiment for the series of `input.column` in `profile`:
+/// replay (when there are real gaps between observed values), blocks with the
+/// real mean gap length, and random, all at the observed missing share
+/// clamped to [0.05, 0.5]; the kind's default methods; a holdout for the
+/// forecast effect (two periods, or a tenth of the series, at most a fifth).
+QuickPlan plan_quick(const DataProfile& profile, const QuickPlanInput& input);
+
+/// One method's standing over the conditions (series × scheme × rate) of a run.
+struct MethodStanding {
+  std::string method;
+  double mean_rank = 0;        ///< mean of the per-condition mean ranks
+  double rank_metric = 0;      ///< mean over conditions of the ranking metric's mean
+  double acf_rms = 0, mase_cost = 0;  ///< NaN when the run has no such column
+  std::size_t top = 0;         ///< conditions where it is best or tied with the best
+  std::size_t top_primary = 0; ///< the same over the primary (replay) conditions
+  std::size_t failures = 0, trials = 0;
+};
+
+struct Recommendation {
+  std::string rank_by;
+  double alpha = 0.05;
+  std::size_t conditions = 0, primary = 0;  ///< all conditions, and those of the primary scheme
+  std::string primary_scheme;               ///< "replay", or "" when every condition counts
+  std::vector<MethodStanding> methods;      ///< by mean rank over the primary conditions
+  std::vector<std::string> also_top;        ///< others best or tied in every primary condition
+};
+
+/// Reads the summary: primary conditions are the replay ones when there are
+/// any (they mimic the real gaps), else all.
+Recommendation recommend(const Summary& summary, const ResultSet& results);
+
+/// The ranked table and the recommendation with its reasons, as text.
+std::string recommendation_text(const Recommendation& r);
+
+}  // namespace gapmark::data

@@ -1,0 +1,118 @@
+// `gapmark regularize`: raw rows onto a regular grid, aggregated per
+// interval, with an empty-interval policy per variable.
+#include <filesystem>
+#include <map>
+#include <iostream>
+
+#include "commands.hpp"
+#include "gapmark/data/regularize.hpp"
+#include "gapmark/error.hpp"
+#include "gapmark/number_format.hpp"
+
+namespace gapmark::cli {
+namespace {
+
+/// Parses "col=value,col=value" (repeatable); a bare "value" sets the default (key "").
+std::map<std::string, std::string> column_choices(const std::vector<std::string>& items, const std::string& option) {
+  std::map<std::string, std::string> out;
+  for (const auto& item : data::split_names(items)) {
+    const auto eq = item.find('=');
+    const std::string key = eq == std::string::npos ? "" : std::string(trim(item.substr(0, eq)));
+    const std::string value = std::string(trim(eq == std::string::npos ? item : item.substr(eq + 1)));
+    if (value.empty() || (eq != std::string::npos && key.empty()))
+      throw InputError(option, "expected COLUMN=VALUE or VALUE, found '" + item + "'");
+    if (!out.emplace(key, value).second) throw InputError(option, "'" + (key.empty() ? value : key) + "' is given twice");
+  }
+  return out;
+}
+
+}  // namespace
+
+void add_regularize(CLI::App& app, Action& action) {
+  struct Options {
+    std::string input, out, step, time_column, layout, span = "shared", utc_offset;
+    std::vector<std::string> group, columns, agg, empty;
+    bool force = false;
+  };
+  auto o = std::make_shared<Options>();
+  auto* cmd = app.add_subcommand("regularize", "Put raw rows on a regular time grid: aggregate each interval, choose what an empty interval means");
+  cmd->add_option("INPUT", o->input, "CSV of rows: time, value columns, and group columns with --group; any order, any spacing")->required();
+  cmd->add_option("--step", o->step, "Grid step, ISO 8601: PT15M, PT1H, P1D, P1W (weeks start Monday), P1M, P3M, P1Y")->required();
+  cmd->add_option("--out,-o", o->out, "Output CSV")->required();
+  cmd->add_option("--group", o->group, "Group columns (COL or COL,COL): each group gets its own grid");
+  cmd->add_option("--column,-c", o->columns, "A value column to keep (repeat; default: every column but the time and groups)");
+  cmd->add_option("--time-column", o->time_column, "Name of the time column (default: the first column that is not a group)");
+  cmd->add_option("--agg", o->agg, "Aggregation per column: COL=sum|count|mean|min|max|last, comma-separated; a bare name sets the default (mean)");
+  cmd->add_option("--empty", o->empty,
+                  "What an interval without rows means, per column: COL=zero (nothing happened: counts, totals) or "
+                  "COL=missing (no observation: readings; the default); a bare word sets the default");
+  cmd->add_option("--layout", o->layout, "Output layout: long (group columns, time, values) or wide (time, one column per group x variable); default: long with groups, else wide")
+      ->check(CLI::IsMember({"wide", "long"}));
+  cmd->add_option("--span", o->span, "Each group's grid covers the span of all rows (shared) or its own rows (own)")
+      ->check(CLI::IsMember({"shared", "own"}))
+      ->capture_default_str();
+  cmd->add_option("--utc-offset", o->utc_offset, "Convert times written with offsets to this one (+01:00, Z); times without one are taken as at it");
+  cmd->add_flag("--force", o->force, "Replace OUT if it exists");
+  cmd->callback([&action, o] {
+    action = [o] {
+      if (!o->force && std::filesystem::exists(o->out))
+        throw InputError(o->out, "exists already; give --force to replace it");
+      data::RawReadOptions read;
+      read.time_column = o->time_column;
+      read.group_columns = data::split_names(o->group);
+      read.value_columns = data::split_names(o->columns);
+      if (!o->utc_offset.empty()) read.utc_offset_minutes = data::parse_utc_offset(o->utc_offset, "--utc-offset");
+      const data::RawData raw = data::read_raw(o->input, read);
+
+      data::RegularizeOptions options;
+      options.step = Step::parse(o->step, "--step");
+      options.shared_span = o->span == "shared";
+      for (const auto& [column, name] : column_choices(o->agg, "--agg")) {
+        const auto a = data::parse_aggregation(name, "--agg");
+        if (column.empty()) options.default_aggregation = a;
+        else options.aggregation[column] = a;
+      }
+      std::optional<data::EmptyPolicy> default_empty;
+      for (const auto& [column, name] : column_choices(o->empty, "--empty")) {
+        const auto e = data::parse_empty_policy(name, "--empty");
+        if (column.empty()) default_empty = e;
+        else options.empty[column] = e;
+      }
+      if (default_empty)
+        for (const auto& v : raw.value_columns) options.empty.emplace(v, *default_empty);
+
+      const data::Panel panel = data::regularize(raw, options);
+      const bool long_layout = o->layout.empty() ? !raw.group_columns.empty() : o->layout == "long";
+      write_file_atomically(o->out, data::panel_csv(panel, long_layout ? data::PanelLayout::Long : data::PanelLayout::Wide));
+
+      // What happened, per variable over all groups.
+      std::cerr << "regularize: " << raw.row_count() << " rows -> " << panel.axes.size() << " group"
+                << (panel.axes.size() == 1 ? "" : "s") << " on a " << options.step.iso() << " grid, written to " << o->out << "\n";
+      for (std::size_t v = 0; v < panel.value_columns.size(); ++v) {
+        data::RegularizeCounts total;
+        for (const auto& g : panel.counts) {
+          total.bins += g[v].bins;
+          total.filled_bins += g[v].filled_bins;
+          total.empty_bins += g[v].empty_bins;
+          total.empty_value_bins += g[v].empty_value_bins;
+          total.partial += g[v].partial;
+        }
+        const bool zero = panel.empty[v] == data::EmptyPolicy::Zero;
+        std::cerr << "  " << panel.value_columns[v] << " (" << data::aggregation_name(panel.aggregation[v])
+                  << ", empty intervals " << data::empty_policy_name(panel.empty[v]) << "): " << total.bins
+                  << " intervals, " << total.filled_bins << " with values, " << total.empty_bins << " without rows"
+                  << (zero ? " written as 0" : " left empty") << ", " << total.empty_value_bins
+                  << " with rows but no value (left empty)";
+        if (total.partial) std::cerr << ", " << total.partial << " aggregated over rows with some empty cells";
+        std::cerr << "\n";
+        const auto a = panel.aggregation[v];
+        if (!zero && total.empty_bins > 0 && (a == data::Aggregation::Sum || a == data::Aggregation::Count))
+          std::cerr << "  note: '" << panel.value_columns[v] << "' is a " << data::aggregation_name(a)
+                    << "; if no row means nothing happened, give --empty " << panel.value_columns[v] << "=zero\n";
+      }
+      return kOk;
+    };
+  });
+}
+
+}  // namespace gapmark::cli

@@ -1,0 +1,233 @@
+// A profile as readable text and as JSON (see profile.hpp).
+#include <algorithm>
+#include <cmath>
+#include <nlohmann/json.hpp>
+
+#include "gapmark/data/profile.hpp"
+#include "gapmark/data/text_columns.hpp"
+#include "gapmark/number_format.hpp"
+#include "gapmark/report/table_text.hpp"
+
+namespace gapmark::data {
+namespace {
+
+using nlohmann::json;
+
+std::string phase_name(const std::string& unit, int phase) {
+  static const char* weekdays[] = {"", "Mon", "Tue", "Wed", "Thu", "Fri", "Sat", "Sun"};
+  static const char* months[] = {"", "Jan", "Feb", "Mar", "Apr", "May", "Jun",
+                                 "Jul", "Aug", "Sep", "Oct", "Nov", "Dec"};
+  if (unit == "weekday" && phase >= 1 && phase <= 7) return weekdays[phase];
+  if (unit == "month" && phase >= 1 && phase <= 12) return months[phase];
+  char buf[16];
+  std::snprintf(buf, sizeof buf, "%02dh", phase);
+  return buf;
+}
+
+std::string share(std::size_t part, std::size_t whole) {
+  return whole ? percent(double(part) / double(whole)) : "n/a";
+}
+
+std::string time_at(const GroupProfile& g, std::size_t i) { return g.grid.size() ? g.grid.format(i) : ""; }
+
+std::string phase_line(const PhaseMissingness& pm) {
+  if (pm.phases.size() < 2) return "";
+  std::vector<std::size_t> order(pm.phases.size());
+  for (std::size_t k = 0; k < order.size(); ++k) order[k] = k;
+  const auto rate = [&](std::size_t k) { return double(pm.missing[k]) / double(std::max<std::size_t>(pm.expected[k], 1)); };
+  std::stable_sort(order.begin(), order.end(), [&](std::size_t a, std::size_t b) { return rate(a) > rate(b); });
+  const std::size_t shown = std::min<std::size_t>(3, order.size() / 2);
+  std::string out = pm.unit + ": highest ";
+  for (std::size_t k = 0; k < shown; ++k)
+    out += (k ? ", " : "") + phase_name(pm.unit, pm.phases[order[k]]) + " " +
+           share(pm.missing[order[k]], pm.expected[order[k]]);
+  out += "; lowest " + phase_name(pm.unit, pm.phases[order.back()]) + " " +
+         share(pm.missing[order.back()], pm.expected[order.back()]);
+  return out;
+}
+
+std::string gap_line(const SeriesProfile& s) {
+  if (s.gaps.empty()) return "no gaps";
+  std::string out;
+  constexpr std::size_t kShown = 14;
+  for (std::size_t k = 0; k < s.gaps.size() && k < kShown; ++k) {
+    const auto& c = s.gaps[k];
+    std::string parts;
+    if (c.records) parts += "r" + std::to_string(c.records);
+    if (c.values) parts += (parts.empty() ? "" : " ") + ("v" + std::to_string(c.values));
+    if (c.mixed) parts += (parts.empty() ? "" : " ") + ("m" + std::to_string(c.mixed));
+    out += (k ? "  " : "") + std::to_string(c.length) + "×" + std::to_string(c.count) + " (" + parts + ")";
+  }
+  if (s.gaps.size() > kShown) out += "  … up to " + std::to_string(s.longest_gap);
+  return out;
+}
+
+std::string layout_words(const DataProfile& p) {
+  if (p.group_columns.empty()) return "wide layout (a time column, then one column per variable)";
+  std::string groups;
+  for (const auto& g : p.group_columns) groups += (groups.empty() ? "" : ", ") + g;
+  return "long layout (groups by " + groups + ")";
+}
+
+}  // namespace
+
+std::string profile_text(const DataProfile& p) {
+  std::string out = "Profile of " + p.source + ": " + layout_words(p) + ", time column '" + p.time_column + "', " +
+                    std::to_string(p.value_columns.size()) + " value column" + (p.value_columns.size() == 1 ? "" : "s") +
+                    "\n";
+  out += "Step " + p.step.iso() + (p.step_given ? " (given)" : " (inferred: the most common spacing between rows)");
+  if (p.offset_minutes) out += "; times at UTC offset " + format_time(TimeKind::DateTime, 0, p.offset_minutes, p.utc_z).substr(16);
+  out += "\n\n";
+
+  out += "Records per group (a missing record is a grid time with no row at all)\n";
+  std::vector<std::vector<std::string>> rows;
+  std::size_t duplicates = 0, off_grid = 0, out_of_order = 0, missing_records = 0;
+  for (const auto& g : p.groups) {
+    rows.push_back({g.label, time_at(g, 0), time_at(g, g.grid.size() ? g.grid.size() - 1 : 0), std::to_string(g.rows),
+                    std::to_string(g.grid.size()), std::to_string(g.present), std::to_string(g.missing_records),
+                    std::to_string(g.duplicates) + (g.conflicting_duplicates ? " (" + std::to_string(g.conflicting_duplicates) + " differ)" : ""),
+                    std::to_string(g.out_of_order), std::to_string(g.off_grid)});
+    duplicates += g.duplicates;
+    off_grid += g.off_grid;
+    out_of_order += g.out_of_order;
+    missing_records += g.missing_records;
+  }
+  out += aligned_table({"group", "first", "last", "rows", "expected", "present", "missing records", "duplicates",
+                        "out of order", "off grid"},
+                       rows, 3);
+
+  out += "\nValues per series (a missing value is a row whose cell is empty)\n";
+  rows.clear();
+  for (const auto& s : p.series)
+    rows.push_back({s.label, std::to_string(s.expected), std::to_string(s.observed), std::to_string(s.missing_values),
+                    std::to_string(s.missing_records), share(s.missing(), s.expected), std::to_string(s.gap_count),
+                    std::to_string(s.longest_gap)});
+  out += aligned_table({"series", "expected", "present", "missing values", "missing records", "missing", "gaps",
+                        "longest gap"},
+                       rows, 1);
+
+  out += "\nGap lengths (a gap is a run of missing points; length×count, r = only missing records, v = only missing "
+         "values, m = both)\n";
+  rows.clear();
+  for (const auto& s : p.series) rows.push_back({s.label, gap_line(s)});
+  out += aligned_table({"series", "gaps"}, rows, 2);
+
+  bool any_phase = false;
+  for (const auto& s : p.series) any_phase = any_phase || !s.phases.empty();
+  if (any_phase) {
+    out += "\nMissingness by phase (share of expected points missing)\n";
+    rows.clear();
+    for (const auto& s : p.series) {
+      bool first = true;
+      for (const auto& pm : s.phases) {
+        const std::string line = phase_line(pm);
+        if (line.empty()) continue;
+        rows.push_back({first ? s.label : "", line});
+        first = false;
+      }
+    }
+    out += aligned_table({"series", "by phase"}, rows, 2);
+  }
+
+  out += "\nValue-dependent missingness screen: the values just before and after each gap against the other values\n"
+         "(Mann-Whitney U, normal approximation). A screening heuristic: a small p hints that values go missing\n"
+         "around some levels more than others; a large p proves nothing, since the missing values are never seen.\n";
+  rows.clear();
+  for (const auto& s : p.series) {
+    if (!s.screen.applicable) {
+      rows.push_back({s.label, "", "", "", "", "", "n/a: " + s.screen.reason});
+      continue;
+    }
+    const auto& t = s.screen.test;
+    std::string verdict = t.p < 0.01 ? (t.z > 0 ? "higher next to gaps" : "lower next to gaps") : "no sign";
+    rows.push_back({s.label, std::to_string(s.screen.near_count) + ", " + short_number(s.screen.near_median),
+                    std::to_string(s.screen.rest_count) + ", " + short_number(s.screen.rest_median),
+                    short_number(t.z), short_number(t.p), "", verdict});
+  }
+  out += aligned_table({"series", "next to gaps (n, median)", "others (n, median)", "z", "p", "", "at 1%"}, rows, 1);
+
+  out += "\n";
+  if (missing_records > 0)
+    out += "Note: " + std::to_string(missing_records) +
+           " missing records. Whether an absent row means nothing happened (the truth is zero: counts, event totals,\n"
+           "feed dispensed) or no observation (the truth is unknown: sensor readings) depends on the variable, not on\n"
+           "the file. Choose per variable when you regularize: gapmark regularize ... --empty COLUMN=zero|missing.\n";
+  if (duplicates + off_grid + out_of_order > 0)
+    out += "Note: " + std::to_string(duplicates) + " duplicate, " + std::to_string(out_of_order) + " out-of-order and " +
+           std::to_string(off_grid) +
+           " off-grid rows. Put the rows on a regular grid (aggregating duplicates) with gapmark regularize.\n";
+  return out;
+}
+
+std::string profile_json(const DataProfile& p) {
+  json j;
+  j["source"] = p.source;
+  j["time_column"] = p.time_column;
+  j["group_columns"] = p.group_columns;
+  j["value_columns"] = p.value_columns;
+  j["step"] = p.step.iso();
+  j["step_given"] = p.step_given;
+  j["utc_offset"] = p.offset_minutes ? json(format_time(TimeKind::DateTime, 0, p.offset_minutes, p.utc_z).substr(16)) : json();
+  json groups = json::array();
+  for (const auto& g : p.groups) {
+    json keys = json::object();
+    for (const auto& [c, v] : g.keys) keys[c] = v;
+    groups.push_back({{"label", g.label},
+                      {"keys", keys},
+                      {"first", time_at(g, 0)},
+                      {"last", time_at(g, g.grid.size() ? g.grid.size() - 1 : 0)},
+                      {"rows", g.rows},
+                      {"expected", g.grid.size()},
+                      {"present", g.present},
+                      {"missing_records", g.missing_records},
+                      {"duplicates", g.duplicates},
+                      {"conflicting_duplicates", g.conflicting_duplicates},
+                      {"out_of_order", g.out_of_order},
+                      {"off_grid", g.off_grid}});
+  }
+  j["groups"] = groups;
+  json series = json::array();
+  for (const auto& s : p.series) {
+    json gaps = json::array();
+    for (const auto& c : s.gaps)
+      gaps.push_back({{"length", c.length}, {"count", c.count}, {"records", c.records}, {"values", c.values}, {"mixed", c.mixed}});
+    json phases = json::object();
+    for (const auto& pm : s.phases) {
+      json list = json::array();
+      for (std::size_t k = 0; k < pm.phases.size(); ++k)
+        list.push_back({{"phase", pm.phases[k]}, {"expected", pm.expected[k]}, {"missing", pm.missing[k]}});
+      phases[pm.unit] = list;
+    }
+    json screen = {{"applicable", s.screen.applicable},
+                   {"method", "Mann-Whitney U, normal approximation with tie and continuity corrections; a screening heuristic"},
+                   {"near_count", s.screen.near_count},
+                   {"rest_count", s.screen.rest_count}};
+    if (s.screen.applicable) {
+      screen["near_median"] = s.screen.near_median;
+      screen["rest_median"] = s.screen.rest_median;
+      screen["u"] = s.screen.test.u;
+      screen["z"] = s.screen.test.z;
+      screen["p"] = s.screen.test.p;
+    } else {
+      screen["reason"] = s.screen.reason;
+    }
+    series.push_back({{"label", s.label},
+                      {"variable", s.variable},
+                      {"group", p.groups[s.group].label},
+                      {"numeric", s.numeric},
+                      {"expected", s.expected},
+                      {"present", s.observed},
+                      {"missing_values", s.missing_values},
+                      {"missing_records", s.missing_records},
+                      {"missing_share", s.expected ? json(double(s.missing()) / double(s.expected)) : json()},
+                      {"gap_count", s.gap_count},
+                      {"longest_gap", s.longest_gap},
+                      {"gap_lengths", gaps},
+                      {"missing_by_phase", phases},
+                      {"value_screen", screen}});
+  }
+  j["series"] = series;
+  return j.dump(2) + "\n";
+}
+
+}  // namespace gapmark::data

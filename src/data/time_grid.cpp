@@ -1,0 +1,195 @@
+// Calendar bins and grids for raw times (see time_grid.hpp). Calendar facts
+// (days from civil dates, weekdays, month lengths) come from the date library.
+#include "gapmark/data/time_grid.hpp"
+
+#include <date/date.h>
+
+#include <algorithm>
+#include <map>
+#include <stdexcept>
+#include <vector>
+
+#include "gapmark/error.hpp"
+
+namespace gapmark::data {
+namespace {
+
+constexpr std::int64_t kDay = 86400;
+constexpr std::int64_t kWeek = 7 * kDay;
+
+std::int64_t floor_div(std::int64_t a, std::int64_t b) {
+  std::int64_t q = a / b;
+  if ((a % b != 0) && ((a < 0) != (b < 0))) --q;
+  return q;
+}
+
+struct Civil {
+  int year;
+  unsigned month, day;
+  std::int64_t second_of_day;
+};
+
+Civil civil(std::int64_t t) {
+  const std::int64_t days = floor_div(t, kDay);
+  const date::year_month_day ymd{date::sys_days{date::days{days}}};
+  return {int(ymd.year()), unsigned(ymd.month()), unsigned(ymd.day()), t - days * kDay};
+}
+
+std::int64_t month_number(std::int64_t t) {
+  const Civil c = civil(t);
+  return std::int64_t(c.year) * 12 + (c.month - 1);
+}
+
+unsigned month_length(int year, unsigned month) {
+  return unsigned((date::year{year} / date::month{month} / date::last).day());
+}
+
+std::int64_t from_civil(int year, unsigned month, unsigned day, std::int64_t second_of_day) {
+  const date::sys_days d{date::year{year} / date::month{month} / date::day{day}};
+  return std::int64_t(d.time_since_epoch().count()) * kDay + second_of_day;
+}
+
+/// The time `months` months after month number `base` on day `month_day`
+/// (clamped to the month's length), at `second_of_day`.
+std::int64_t month_point(std::int64_t number, int month_day, std::int64_t second_of_day) {
+  const std::int64_t year = floor_div(number, 12);
+  const unsigned month = unsigned(number - year * 12) + 1;
+  const unsigned day = std::min(unsigned(month_day), month_length(int(year), month));
+  return from_civil(int(year), month, day, second_of_day);
+}
+
+bool is_month_end(const Civil& c) { return c.day == month_length(c.year, c.month); }
+
+}  // namespace
+
+void check_step_kind(TimeKind kind, const Step& step, const std::string& where) {
+  const std::string name = "step " + step.iso();
+  if (kind == TimeKind::Index && step.unit != Step::Unit::Index)
+    throw InputError(where, name + " does not fit integer times; give a whole number");
+  if (kind != TimeKind::Index && step.unit == Step::Unit::Index)
+    throw InputError(where, name + " does not fit dated times; give an ISO 8601 duration such as PT1H or P1D");
+  if (kind == TimeKind::Date && step.unit == Step::Unit::Seconds && step.amount % kDay != 0)
+    throw InputError(where, name + " is finer than the data's dates (YYYY-MM-DD); use whole days, weeks, months or years");
+}
+
+void check_binning_step(TimeKind kind, const Step& step, const std::string& where) {
+  check_step_kind(kind, step, where);
+  if (kind == TimeKind::Index) return;
+  const std::string name = "step " + step.iso();
+  if (step.unit == Step::Unit::Months) {
+    if (step.amount % 12 != 0 && 12 % step.amount != 0)
+      throw InputError(where, name + " does not divide a year into equal parts; use P1M, P2M, P3M, P4M, P6M or whole years");
+    return;
+  }
+  if (step.amount % kDay != 0 && kDay % step.amount != 0)
+    throw InputError(where, name + " does not divide a day, so its bins would drift across midnight; use one that does "
+                                   "(PT10M, PT15M, PT30M, PT1H, PT2H, PT3H, PT4H, PT6H, PT8H, PT12H ...) or whole days");
+}
+
+Binning::Binning(TimeKind kind, Step step, std::int64_t first) : kind_(kind), step_(step) {
+  if (step_.unit == Step::Unit::Seconds && step_.amount % kDay == 0) {
+    const std::int64_t midnight = floor_div(first, kDay) * kDay;
+    if (step_.amount % kWeek == 0) {
+      // The Monday on or before the first day: 1970-01-01 was a Thursday.
+      const std::int64_t days = floor_div(first, kDay);
+      const std::int64_t since_monday = ((days + 3) % 7 + 7) % 7;
+      anchor_ = (days - since_monday) * kDay;
+    } else {
+      anchor_ = midnight;
+    }
+  }
+}
+
+std::int64_t Binning::floor(std::int64_t t) const {
+  if (step_.unit == Step::Unit::Months) {
+    const std::int64_t m = floor_div(month_number(t), step_.amount) * step_.amount;
+    return month_point(m, 1, 0);
+  }
+  return anchor_ + floor_div(t - anchor_, step_.amount) * step_.amount;
+}
+
+TimeAxis Binning::axis(std::int64_t lo, std::int64_t hi, std::optional<int> offset_minutes, bool utc_z) const {
+  const std::int64_t start = floor(lo), end = floor(hi);
+  std::int64_t count = 0;
+  if (step_.unit == Step::Unit::Months)
+    count = (month_number(end) - month_number(start)) / step_.amount + 1;
+  else
+    count = (end - start) / step_.amount + 1;
+  AxisStyle style;
+  style.utc_z = utc_z;
+  if (step_.unit == Step::Unit::Months) style.month_day = 1;
+  return TimeAxis(kind_, step_, start, static_cast<std::size_t>(count),
+                  kind_ == TimeKind::DateTime ? offset_minutes : std::nullopt, style);
+}
+
+std::size_t Binning::index(const TimeAxis& axis, std::int64_t t) const {
+  const std::int64_t b = floor(t);
+  if (step_.unit == Step::Unit::Months)
+    return static_cast<std::size_t>((month_number(b) - month_number(axis.start())) / step_.amount);
+  return static_cast<std::size_t>((b - axis.start()) / step_.amount);
+}
+
+std::optional<std::int64_t> grid_offset(TimeKind kind, const Step& step, std::int64_t from, std::int64_t to,
+                                        int month_day) {
+  if (step.unit != Step::Unit::Months) {
+    const std::int64_t d = to - from;
+    if (d % step.amount != 0) return std::nullopt;
+    return d / step.amount;
+  }
+  if (kind == TimeKind::Index) return std::nullopt;
+  const Civil a = civil(from);
+  const std::int64_t k = month_number(to) - month_number(from);
+  if (k % step.amount != 0) return std::nullopt;
+  const int day = month_day > 0 ? month_day : int(a.day);
+  if (month_point(month_number(from) + k, day, a.second_of_day) != to) return std::nullopt;
+  return k / step.amount;
+}
+
+std::int64_t grid_phase_key(TimeKind kind, const Step& step, std::int64_t t) {
+  if (step.unit != Step::Unit::Months || kind == TimeKind::Index) return ((t % step.amount) + step.amount) % step.amount;
+  const Civil c = civil(t);
+  const std::int64_t m = ((month_number(t) % step.amount) + step.amount) % step.amount;
+  const std::int64_t day = is_month_end(c) ? 31 : c.day;
+  return (m * 32 + day) * kDay + c.second_of_day;
+}
+
+int month_anchor_day(std::span<const std::int64_t> times) {
+  if (times.empty()) return 0;
+  std::vector<Civil> c;
+  c.reserve(times.size());
+  for (auto t : times) c.push_back(civil(t));
+  for (const auto& x : c)
+    if (x.second_of_day != c.front().second_of_day) return 0;
+  if (std::all_of(c.begin(), c.end(), [&](const Civil& x) { return x.day == c.front().day; })) return int(c.front().day);
+  if (std::all_of(c.begin(), c.end(), is_month_end)) return 31;
+  unsigned anchor = 0;
+  for (const auto& x : c) anchor = std::max(anchor, x.day);
+  if (std::all_of(c.begin(), c.end(), [&](const Civil& x) { return x.day == anchor || (x.day < anchor && is_month_end(x)); }))
+    return int(anchor);
+  return 0;
+}
+
+std::optional<Step> infer_step(TimeKind kind, std::span<const std::int64_t> sorted_runs,
+                               std::span<const std::size_t> run_ends) {
+  const bool months = kind != TimeKind::Index && month_anchor_day(sorted_runs) != 0;
+  std::map<std::int64_t, std::size_t> counts;
+  std::size_t begin = 0;
+  for (std::size_t end : run_ends) {
+    for (std::size_t i = begin + 1; i < end; ++i) {
+      const std::int64_t d = months ? month_number(sorted_runs[i]) - month_number(sorted_runs[i - 1])
+                                    : sorted_runs[i] - sorted_runs[i - 1];
+      if (d > 0) ++counts[d];
+    }
+    begin = end;
+  }
+  if (counts.empty()) return std::nullopt;
+  std::int64_t best = 0;
+  std::size_t best_count = 0;
+  for (const auto& [d, n] : counts)
+    if (n > best_count) best = d, best_count = n;  // map order: ties keep the smaller
+  if (kind == TimeKind::Index) return Step{Step::Unit::Index, best};
+  if (months) return Step{Step::Unit::Months, best};
+  return Step{Step::Unit::Seconds, best};
+}
+
+}  // namespace gapmark::data

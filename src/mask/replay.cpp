@@ -1,0 +1,228 @@
+// Gaps like the series' own: learn the pattern of the real gaps and replay it
+// on the complete stretches.
+//
+// Learning. The real gaps are the runs of missing points with an observed
+// point on both sides (runs at the ends are cut off by the series' span and
+// their true length is unknown, so they are left out). From them:
+//  - the gap-length distribution: the empirical distribution of their lengths;
+//  - the gap-start probability by phase: for each phase p (hour of day below a
+//    daily step, ISO weekday for daily steps, month for weekly and monthly
+//    steps, i mod period on integer axes; `phase` chooses), the number of
+//    gaps starting at phase p over the number of points at phase p where a gap
+//    could start (the point before is observed). `prior_starts` pseudo gap
+//    starts, spread evenly over the phases, keep every phase possible.
+//
+// Replaying. Blocks are placed one after another until exactly target_count
+// points are hidden. A block's length is drawn from the learned lengths; the
+// one that would overshoot the target is cut to fit (so only the last block
+// of a mask can have a length the real gaps do not have). Its
+// start is drawn among the valid starts with probability proportional to the
+// learned start probability of its phase. A block is valid when every point
+// it covers is observed and before the holdout, and the point just before
+// and just after it are observed and not hidden: so each block is a gap of
+// exactly its drawn length, never merged with a real gap or another block.
+// When no start fits a length, a new length is drawn; after many failures in
+// a row the rate cannot be reached and an InputError says so. As with
+// `blocks`, tight room favours short lengths at high rates.
+//
+// Randomness only from the Rng given (seeded from the task's key).
+#include <algorithm>
+#include <cmath>
+#include <map>
+#include <optional>
+
+#include "gapmark/error.hpp"
+#include "gapmark/mask/scheme.hpp"
+#include "gapmark/number_format.hpp"
+
+namespace gapmark {
+namespace {
+
+constexpr int kRandomTries = 64;
+constexpr int kMaxLengthFailures = 200;
+constexpr std::int64_t kDay = 86400;
+
+enum class PhaseUnit { None, Index, Hour, Weekday, Month };
+
+PhaseUnit choose_unit(const std::string& name, const MaskRequest& request) {
+  if (name == "none") return PhaseUnit::None;
+  if (name == "index") return PhaseUnit::Index;
+  if (name == "hour") return PhaseUnit::Hour;
+  if (name == "weekday") return PhaseUnit::Weekday;
+  if (name == "month") return PhaseUnit::Month;
+  const TimeAxis* axis = request.axis;
+  if (axis == nullptr || axis->kind() == TimeKind::Index) return request.period > 1 ? PhaseUnit::Index : PhaseUnit::None;
+  const Step& step = axis->step();
+  if (step.unit == Step::Unit::Months) return step.amount < 12 ? PhaseUnit::Month : PhaseUnit::None;
+  if (step.amount < kDay) return PhaseUnit::Hour;
+  if (step.amount < 7 * kDay) return PhaseUnit::Weekday;
+  return PhaseUnit::Month;
+}
+
+/// The learned pattern of one series.
+struct Pattern {
+  std::vector<std::size_t> lengths;   ///< sorted
+  std::vector<double> weight;         ///< per position: start weight of its phase
+  double max_weight = 0;
+};
+
+Pattern learn(const MaskRequest& request, PhaseUnit unit, double prior_starts) {
+  const auto& v = request.values;
+  const std::size_t n = v.size();
+  const auto missing = [&](std::size_t i) { return std::isnan(v[i]); };
+  std::vector<int> phase(n, 0);
+  if (unit != PhaseUnit::None && (unit == PhaseUnit::Index || request.axis != nullptr)) {
+    if (unit != PhaseUnit::Index && request.axis->kind() == TimeKind::Index)
+      throw InputError(request.where, "replay: phase by calendar needs dated times; use phase=index or phase=none");
+    if (unit == PhaseUnit::Index && request.period < 2)
+      throw InputError(request.where, "replay: phase=index needs a seasonal period of at least 2");
+    for (std::size_t i = 0; i < n; ++i) {
+      switch (unit) {
+        case PhaseUnit::Index: phase[i] = int(i % request.period); break;
+        case PhaseUnit::Hour: phase[i] = request.axis->hour_of_day(i); break;
+        case PhaseUnit::Weekday: phase[i] = request.axis->day_of_week(i); break;
+        case PhaseUnit::Month: phase[i] = request.axis->month(i); break;
+        case PhaseUnit::None: break;
+      }
+    }
+  }
+  Pattern p;
+  std::map<int, std::pair<double, double>> by_phase;  // phase -> (starts, opportunities)
+  for (std::size_t i = 1; i < n; ++i) {
+    if (missing(i - 1)) continue;
+    auto& c = by_phase[phase[i]];
+    c.second += 1;
+    if (!missing(i)) continue;
+    std::size_t j = i;
+    while (j < n && missing(j)) ++j;
+    if (j == n) break;  // runs to the end: censored
+    c.first += 1;
+    p.lengths.push_back(j - i);
+  }
+  if (p.lengths.empty())
+    throw InputError(request.where, "replay: the series has no gaps between observed values to learn from; use blocks or random");
+  std::sort(p.lengths.begin(), p.lengths.end());
+  const double spread = prior_starts / double(by_phase.size());
+  std::map<int, double> w;
+  for (const auto& [ph, c] : by_phase) w[ph] = (c.first + spread) / c.second;
+  p.weight.assign(n, 0);
+  for (std::size_t i = 0; i < n; ++i) {
+    const auto it = w.find(phase[i]);
+    p.weight[i] = it == w.end() ? 0 : it->second;
+    p.max_weight = std::max(p.max_weight, p.weight[i]);
+  }
+  return p;
+}
+
+class ReplayScheme final : public MaskScheme {
+public:
+  ReplayScheme(std::string phase, double prior_starts) : phase_(std::move(phase)), prior_starts_(prior_starts) {}
+
+  Mask draw(const MaskRequest& request, Rng& rng) const override {
+    check_rate(request.rate, request.where);
+    const auto eligible = eligible_positions(request);
+    if (eligible.empty()) throw InputError(request.where, "no observed points before the holdout to hide");
+    const Pattern pattern = learn(request, choose_unit(phase_, request), prior_starts_);
+    const std::size_t n = request.values.size();
+    const std::size_t limit = request.holdout >= n ? 0 : n - request.holdout;
+    const std::size_t target = target_count(request, eligible.size());
+
+    Mask mask(n, 0);
+    std::size_t hidden = 0;
+    int failures = 0;
+    while (hidden < target) {
+      const std::size_t len = draw_length(pattern.lengths, target - hidden, rng);
+      const auto start = place(request.values, mask, eligible, pattern, limit, len, rng);
+      if (!start) {
+        if (++failures >= kMaxLengthFailures) throw unreachable(request, hidden, target);
+        continue;
+      }
+      failures = 0;
+      for (std::size_t i = *start; i < *start + len; ++i) mask[i] = 1;
+      hidden += len;
+    }
+    return mask;
+  }
+
+private:
+  /// A learned length, cut to the room left: only the last block of a mask is ever cut.
+  static std::size_t draw_length(const std::vector<std::size_t>& lengths, std::size_t room, Rng& rng) {
+    return std::min(lengths[rng.below(lengths.size())], room);
+  }
+
+  /// A block [s, s+len): all observed and before `limit`, with an observed,
+  /// unhidden point on each side.
+  static bool fits(std::span<const double> values, const Mask& mask, std::size_t limit, std::size_t s, std::size_t len) {
+    if (s == 0 || s + len >= values.size() || s + len > limit) return false;
+    for (std::size_t i = s - 1; i <= s + len; ++i)
+      if (std::isnan(values[i]) || mask[i]) return false;
+    return true;
+  }
+
+  static std::optional<std::size_t> place(std::span<const double> values, const Mask& mask,
+                                          const std::vector<std::size_t>& eligible, const Pattern& pattern,
+                                          std::size_t limit, std::size_t len, Rng& rng) {
+    if (pattern.max_weight <= 0) return std::nullopt;
+    for (int t = 0; t < kRandomTries; ++t) {
+      const std::size_t s = eligible[rng.below(eligible.size())];
+      if (rng.uniform() * pattern.max_weight >= pattern.weight[s]) continue;
+      if (fits(values, mask, limit, s, len)) return s;
+    }
+    // Every valid start, drawn by weight. clear[i]: consecutive observed,
+    // unhidden points ending at i.
+    std::vector<std::size_t> clear(values.size());
+    for (std::size_t i = 0; i < values.size(); ++i)
+      clear[i] = (std::isnan(values[i]) || mask[i]) ? 0 : (i > 0 ? clear[i - 1] : 0) + 1;
+    std::vector<std::size_t> valid;
+    std::vector<double> cumulative;
+    double total = 0;
+    for (std::size_t s : eligible) {
+      if (s == 0) continue;
+      if (s + len >= values.size() || s + len > limit) break;
+      if (clear[s + len] < len + 2 || pattern.weight[s] <= 0) continue;
+      total += pattern.weight[s];
+      valid.push_back(s);
+      cumulative.push_back(total);
+    }
+    if (valid.empty()) return std::nullopt;
+    const double u = rng.uniform() * total;
+    const auto k = static_cast<std::size_t>(std::upper_bound(cumulative.begin(), cumulative.end(), u) - cumulative.begin());
+    return valid[std::min(k, valid.size() - 1)];
+  }
+
+  static InputError unreachable(const MaskRequest& request, std::size_t hidden, std::size_t target) {
+    return InputError(request.where, "replay: rate " + format_double(request.rate) + " cannot be reached: no room left after hiding " +
+                                         std::to_string(hidden) + " of " + std::to_string(target) +
+                                         " points in gaps shaped like the real ones (they may not touch real gaps or each other); lower the rate");
+  }
+
+  std::string phase_;
+  double prior_starts_;
+};
+
+const Registration<MaskScheme> registration{{
+    .name = "replay",
+    .summary = "gaps like the series' own: real gap lengths and gap-start probability by phase, replayed on the complete stretches",
+    .params = {{.name = "phase",
+                .type = ParamType::Choice,
+                .default_value = "auto",
+                .min = 0,
+                .max = 0,
+                .choices = {"auto", "hour", "weekday", "month", "index", "none"},
+                .help = "phase the start probability depends on; auto: hour below a daily step, weekday for days, month "
+                        "for weeks and months, i mod period on integer axes"},
+               {.name = "prior_starts",
+                .type = ParamType::Real,
+                .default_value = "1",
+                .min = 0,
+                .max = 1e6,
+                .choices = {},
+                .help = "pseudo gap starts spread evenly over the phases before learning, so that no phase is impossible"}},
+    .make =
+        [](const ParamValues& p) {
+          return std::make_unique<ReplayScheme>(p.text("phase"), p.real("prior_starts"));
+        },
+}};
+
+}  // namespace
+}  // namespace gapmark

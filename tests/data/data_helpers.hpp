@@ -1,0 +1,38 @@
+#pragma once
+// Helpers for the raw-data tests: parse CSV text, catch an InputError's text,
+// read stored reference JSON.
+#include <fstream>
+#include <nlohmann/json.hpp>
+#include <sstream>
+#include <string>
+
+#include "gapmark/data/raw_table.hpp"
+#include "gapmark/error.hpp"
+#include "gapmark/table_io.hpp"
+
+namespace data_test {
+
+inline gapmark::data::RawData raw(const std::string& text, gapmark::data::RawReadOptions options = {}) {
+  return gapmark::data::parse_raw(gapmark::parse_csv(text, "data.csv"), options);
+}
+
+template <class F>
+std::string error_of(F&& f) {
+  try {
+    f();
+  } catch (const gapmark::InputError& e) {
+    return e.what();
+  }
+  return "(no error)";
+}
+
+inline nlohmann::json reference(const std::string& relative) {
+  std::ifstream in(std::string(GAPMARK_SOURCE_DIR) + "/reference/" + relative);
+  std::stringstream s;
+  s << in.rdbuf();
+  return nlohmann::json::parse(s.str());
+}
+
+inline std::string source_path(const std::string& relative) { return std::string(GAPMARK_SOURCE_DIR) + "/" + relative; }
+
+}  // namespace data_test

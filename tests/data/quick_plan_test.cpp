@@ -1,0 +1,112 @@
+// The one-command answer: kinds, default methods, the planned spec (it must
+// parse), and the recommendation read from a summary.
+#include <doctest/doctest.h>
+
+#include <cmath>
+
+#include "data_helpers.hpp"
+#include "gapmark/data/quick_plan.hpp"
+#include "gapmark/experiment/spec.hpp"
+
+using namespace gapmark;
+using namespace gapmark::data;
+
+TEST_CASE("kind guesses: a rule of thumb") {
+  CHECK(guess_kind(std::vector<double>{0, 0, 3, 0, 1, 0, 2, 0}).kind == VariableKind::Count);
+  CHECK(guess_kind(std::vector<double>{0, 0, 2.5, 0, 0, 3.1}).kind == VariableKind::Count);
+  std::vector<double> smooth, rough;
+  for (int i = 0; i < 200; ++i) {
+    smooth.push_back(5.5 + std::sin(i * 0.1));
+    rough.push_back(5.5 + ((i * 7919) % 13) * 0.1);
+  }
+  CHECK(guess_kind(smooth).kind == VariableKind::Smooth);
+  CHECK(guess_kind(rough).kind == VariableKind::Level);
+  CHECK(data_test::error_of([] { parse_kind("rate", "--kind"); }).rfind("--kind: unknown kind 'rate'", 0) == 0);
+}
+
+TEST_CASE("default methods by kind; seasonal ones only with a period") {
+  const auto count = default_methods(VariableKind::Count, true);
+  CHECK(count.front() == "zero");
+  CHECK(std::find(count.begin(), count.end(), "seasonal-mean") != count.end());
+  const auto smooth = default_methods(VariableKind::Smooth, false);
+  CHECK(std::find(smooth.begin(), smooth.end(), "seasonal-adjusted") == smooth.end());
+  CHECK(std::find(smooth.begin(), smooth.end(), "kalman:model=trend") != smooth.end());
+  CHECK(kind_caution(VariableKind::Count, "feed_kg").find("--empty feed_kg=zero") != std::string::npos);
+  CHECK(kind_caution(VariableKind::Level, "salinity").find("not a zero") != std::string::npos);
+}
+
+TEST_CASE("the plan: masks at the observed missing share, clamped, and a spec that parses") {
+  // 48 hourly points, 6 missing in 2 interior gaps (lengths 2 and 4): 12.5%.
+  std::string text = "time,x\n";
+  for (int h = 0; h < 48; ++h) {
+    char line[64];
+    const bool gap = (h >= 10 && h < 12) || (h >= 30 && h < 34);
+    std::snprintf(line, sizeof line, "2026-03-%02dT%02d:00,%s\n", 1 + h / 24, h % 24, gap ? "" : "1.5");
+    text += line;
+  }
+  const DataProfile profile = profile_data(data_test::raw(text));
+  QuickPlanInput input;
+  input.data_file = "x.csv";
+  input.column = "x";
+  input.kind = VariableKind::Smooth;
+  QuickPlan plan = plan_quick(profile, input);
+  CHECK(plan.observed_missing == doctest::Approx(0.125));
+  CHECK(plan.mask_rate == doctest::Approx(0.125));
+  CHECK(plan.replay);
+  CHECK(plan.mean_gap == doctest::Approx(3.0));
+  CHECK(plan.period == 24);
+  CHECK(plan.holdout == 9);  // two periods, at most a fifth of 48
+  CHECK(plan.spec["schemes"][0]["name"] == "replay");
+  CHECK(plan.spec["schemes"][1]["length_mean"] == 3.0);
+  CHECK(plan.spec["schemes"][2]["rates"][0] == 0.125);
+  const ExperimentSpec spec = parse_spec(plan.spec.dump(), "spec.json", ".");
+  CHECK(spec.schemes.size() == 3);
+  CHECK(spec.methods.size() == plan.methods.size());
+
+  // No gaps: no replay, the rate clamped up to 0.05.
+  const DataProfile full = profile_data(data_test::raw("time,x\n1,1\n2,2\n3,3\n4,4\n"));
+  input.kind = VariableKind::Count;
+  plan = plan_quick(full, input);
+  CHECK_FALSE(plan.replay);
+  CHECK(plan.mask_rate == 0.05);
+  CHECK(plan.spec["schemes"].size() == 2);
+}
+
+TEST_CASE("the recommendation: lowest mean rank over the replay conditions, and who else is at the top") {
+  ResultSet results;
+  results.columns = {{"rmse", "value", Direction::Lower, ""}, {"acf_rms", "", Direction::Lower, ""},
+                     {"mase_cost", "", Direction::Lower, ""}};
+  Summary summary;
+  summary.rank_by = "rmse";
+  const auto method = [](std::string name, double rank, bool tied, double rmse, double acf, double mase) {
+    MethodSummary m;
+    m.method = std::move(name);
+    m.mean_rank = rank;
+    m.tied_with_best = tied;
+    m.metrics = {{rmse, 0, 0, 0, 10}, {acf, 0, 0, 0, 10}, {mase, 0, 0, 0, 10}};
+    m.trials = 10;
+    return m;
+  };
+  CellGroup replay1{"x", "replay", 0.1, 10, {method("pchip", 1.4, true, 0.5, 0.02, 0.01), method("linear", 1.8, true, 0.6, 0.01, 0.02),
+                                             method("zero", 3.0, false, 3.0, 0.4, 0.5)}, 0, 0};
+  CellGroup replay2{"y", "replay", 0.1, 10, {method("linear", 1.5, true, 0.4, 0.01, 0.0), method("pchip", 1.6, true, 0.45, 0.03, 0.01),
+                                             method("zero", 2.9, false, 2.0, 0.3, 0.4)}, 0, 0};
+  CellGroup blocks{"x", "blocks", 0.1, 10, {method("zero", 1.0, true, 0.1, 0.1, 0.1), method("pchip", 2.0, false, 0.5, 0.1, 0.1),
+                                            method("linear", 3.0, false, 0.7, 0.1, 0.1)}, 0, 0};
+  summary.groups = {replay1, replay2, blocks};
+  const Recommendation r = recommend(summary, results);
+  CHECK(r.primary == 2);
+  CHECK(r.conditions == 3);
+  REQUIRE(r.methods.size() == 3);
+  CHECK(r.methods[0].method == "pchip");  // (1.4 + 1.6) / 2 = 1.5 < linear's 1.65; blocks not counted
+  CHECK(r.methods[0].mean_rank == doctest::Approx(1.5));
+  CHECK(r.methods[0].rank_metric == doctest::Approx(0.475));
+  CHECK(r.methods[0].top_primary == 2);
+  CHECK(r.methods[2].method == "zero");
+  CHECK(r.methods[2].top == 1);
+  CHECK(r.also_top == std::vector<std::string>{"linear"});
+  const std::string text = recommendation_text(r);
+  CHECK(text.find("Recommendation: pchip") != std::string::npos);
+  CHECK(text.find("not distinguishable from it (best or tied in every one of them as well): linear") != std::string::npos);
+  CHECK(text.find("acf_rms 0.025 (lowest: linear 0.01)") != std::string::npos);
+}
