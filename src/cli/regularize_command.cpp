@@ -53,6 +53,12 @@ void add_regularize(CLI::App& app, Action& action) {
       ->capture_default_str();
   cmd->add_option("--utc-offset", o->utc_offset, "Convert times written with offsets to this one (+01:00, Z); times without one are taken as at it");
   cmd->add_flag("--force", o->force, "Replace OUT if it exists");
+  cmd->footer(
+      "Each interval [start, start + step) is labelled by its start. Steps that divide a day start at midnight; P1W and P7D\n"
+      "start on Monday 00:00 (ISO 8601 weeks); P1M, P3M, P1Y start on the 1st of the month, quarter, year.\n"
+      "Times are taken as written: there is no time-zone database. Local clock times without offsets that cross a\n"
+      "daylight-saving change give one interval with two hours of rows (autumn) and one empty interval (spring);\n"
+      "times written with their offsets can be brought to one offset with --utc-offset.");
   cmd->callback([&action, o] {
     action = [o] {
       if (!o->force && std::filesystem::exists(o->out))

@@ -69,6 +69,13 @@ std::string layout_words(const DataProfile& p) {
   return "long layout (groups by " + groups + ")";
 }
 
+std::string group_option(const DataProfile& p) {
+  if (p.group_columns.empty()) return "";
+  std::string out = " --group ";
+  for (std::size_t g = 0; g < p.group_columns.size(); ++g) out += (g ? "," : "") + p.group_columns[g];
+  return out;
+}
+
 }  // namespace
 
 std::string profile_text(const DataProfile& p) {
@@ -81,7 +88,7 @@ std::string profile_text(const DataProfile& p) {
 
   out += "Records per group (a missing record is a grid time with no row at all)\n";
   std::vector<std::vector<std::string>> rows;
-  std::size_t duplicates = 0, off_grid = 0, out_of_order = 0, missing_records = 0;
+  std::size_t duplicates = 0, off_grid = 0, out_of_order = 0, missing_records = 0, all_rows = 0;
   for (const auto& g : p.groups) {
     rows.push_back({g.label, time_at(g, 0), time_at(g, g.grid.size() ? g.grid.size() - 1 : 0), std::to_string(g.rows),
                     std::to_string(g.grid.size()), std::to_string(g.present), std::to_string(g.missing_records),
@@ -91,6 +98,7 @@ std::string profile_text(const DataProfile& p) {
     off_grid += g.off_grid;
     out_of_order += g.out_of_order;
     missing_records += g.missing_records;
+    all_rows += g.rows;
   }
   out += aligned_table({"group", "first", "last", "rows", "expected", "present", "missing records", "duplicates",
                         "out of order", "off grid"},
@@ -147,6 +155,11 @@ std::string profile_text(const DataProfile& p) {
   out += aligned_table({"series", "next to gaps (n, median)", "others (n, median)", "z", "p", "", "at 1%"}, rows, 1);
 
   out += "\n";
+  if (2 * off_grid > all_rows)
+    out += "Note: most rows (" + share(off_grid, all_rows) + ") fall between the points of a " + p.step.iso() +
+           " grid: these look like events at\nirregular times rather than a regular log. Put them on a grid first, for "
+           "example\n  gapmark regularize " + p.source + group_option(p) + " --step PT1H --agg COLUMN=sum --empty COLUMN=zero --out HOURLY.csv\n"
+           "and profile the result.\n";
   if (missing_records > 0)
     out += "Note: " + std::to_string(missing_records) +
            " missing records. Whether an absent row means nothing happened (the truth is zero: counts, event totals,\n"
