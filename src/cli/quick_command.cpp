@@ -1,6 +1,7 @@
 // `gapmark quick`: profile one variable, write a default experiment whose
 // masks mimic its own gaps, run it, and print the ranking, a recommendation
 // with its reasons, and the caution that follows from the variable's kind.
+#include <algorithm>
 #include <filesystem>
 #include <iostream>
 #include <thread>
@@ -97,7 +98,11 @@ void add_quick(CLI::App& app, Action& action) {
       const fs::path dir = o->out;
       const fs::path spec_path = dir / "spec.json";
       data::QuickPlanInput input;
-      input.data_file = fs::absolute(o->input).lexically_proximate(fs::absolute(dir)).generic_string();
+      // The spec names the data relative to its folder when that stays close, else absolutely.
+      const fs::path data_path = fs::absolute(o->input).lexically_normal();
+      const fs::path relative = data_path.lexically_proximate(fs::absolute(dir).lexically_normal());
+      const auto ups = std::count(relative.begin(), relative.end(), fs::path(".."));
+      input.data_file = (relative.is_relative() && ups <= 1 ? relative : data_path).generic_string();
       input.column = column;
       input.groups = raw.group_columns;
       input.time_column = o->time_column;

@@ -192,8 +192,8 @@ std::string ParamValues::canonical(const std::vector<ParamSpec>& schema) const {
 
 nlohmann::json ParamValues::to_json() const {
   nlohmann::json j = nlohmann::json::object();
-  for (const auto& [name, value] : values_)
-    std::visit([&](const auto& v) { j[name] = v; }, value);
+  for (const auto& entry : values_)  // not a structured binding: clang before 16 cannot capture one
+    std::visit([&](const auto& v) { j[entry.first] = v; }, entry.second);
   return j;
 }
 
