@@ -90,6 +90,8 @@ Tolerances read_tolerance_file(const std::filesystem::path& path, Tolerances bas
     j = nlohmann::json::parse(read_text_file(path));
   } catch (const nlohmann::json::parse_error& e) {
     throw InputError(source, std::string("invalid JSON: ") + e.what());
+  } catch (const nlohmann::json::out_of_range& e) {  // a number too large for a double, such as 1e999
+    throw InputError(source, std::string("invalid JSON: ") + e.what());
   }
   if (!j.is_object()) throw InputError(source, "expected an object {\"metric\": {\"relative\": 0.05}}");
   for (const auto& [metric, value] : j.items()) {

@@ -69,6 +69,8 @@ ResultSet read_results(const std::filesystem::path& path) {
     j = nlohmann::json::parse(text);
   } catch (const nlohmann::json::parse_error& e) {
     throw InputError(path.string(), std::string("invalid JSON: ") + e.what());
+  } catch (const nlohmann::json::out_of_range& e) {  // a number too large for a double, such as 1e999
+    throw InputError(path.string(), std::string("invalid JSON: ") + e.what());
   }
   return results_from_json(j, path.string());
 }

@@ -112,6 +112,15 @@ ExperimentSpec parse_spec(const std::string& text, const std::string& source,
     auto pos = what.find("syntax error");
     throw InputError(source + ":" + std::to_string(line_of(text, e.byte)),
                      "invalid JSON: " + (pos == std::string::npos ? what : what.substr(pos)));
+  } catch (const json::out_of_range& e) {  // a number too large for a double, such as 1e999
+    std::string what = e.what();
+    what = what.substr(what.find(']') + 2);  // drop "[json.exception.out_of_range.406] "
+    const auto quote = what.find('\'');
+    const auto at = quote == std::string::npos
+                        ? std::string::npos
+                        : text.find(what.substr(quote + 1, what.size() - quote - 2));
+    throw InputError(at == std::string::npos ? source : source + ":" + std::to_string(line_of(text, at)),
+                     "invalid JSON: " + what);
   }
   const json& j = spec.json;
   if (!j.is_object()) throw InputError(ctx.at("/"), "expected a JSON object");
