@@ -73,6 +73,7 @@ json checkpoint_header(const ExperimentSpec& spec, const LoadedData& data, const
   return {{"format", "gapmark-checkpoint"},
           {"version", kCheckpointVersion},
           {"spec_sha256", spec.sha256},
+          {"spec_dir", std::filesystem::absolute(spec.base_dir).lexically_normal().generic_string()},
           {"shard", {{"index", shard.index}, {"count", shard.count}}},
           {"tasks", build_tasks(spec, data).size()},
           {"grid", {{"schemes", schemes}, {"replicates", spec.replicates}, {"methods", methods}}},

@@ -3,6 +3,7 @@
 #include <algorithm>
 #include <cmath>
 
+#include "gapmark/error.hpp"
 #include "gapmark/rng.hpp"
 #include "gapmark/stats/acf.hpp"
 
@@ -84,8 +85,7 @@ nlohmann::json example_for(const ExperimentSpec& spec, const LoadedData& data, c
   }
 
   // The same mask as the run: same request, same seed from the same key.
-  MaskRequest request{series.values, &series.axis, series.period, spec.holdout, rate,
-                      spec.source + ": " + plan.scheme.label + ", series '" + series.label() + "'"};
+  const MaskRequest request = mask_request_for(spec, data, task);
   Rng rng(task_seed(spec.seed, task_key(spec, data, task)));
   Mask mask;
   try {
@@ -163,8 +163,36 @@ nlohmann::json build_examples(const ExperimentSpec& spec, const LoadedData& data
                               const ExampleOptions& options) {
   nlohmann::json list = nlohmann::json::array();
   if (!spec.schemes.empty() && !spec.schemes.front().rates.empty())
-    for (std::size_t s = 0; s < data.series.size(); ++s) list.push_back(example_for(spec, data, summary, s, options));
+    for (std::size_t s = 0; s < std::min(data.series.size(), options.max_series); ++s)
+      list.push_back(example_for(spec, data, summary, s, options));
   return {{"window", options.window}, {"top", options.top}, {"series", list}};
+}
+
+std::string attach_examples(ResultSet& results, const ExperimentSpec& spec, const ExampleOptions& options) {
+  results.examples = nullptr;
+  LoadedData data;
+  try {
+    data = load_data(spec);
+  } catch (const InputError& e) {
+    return std::string("the data cannot be read again: ") + e.what();
+  }
+  const nlohmann::json recorded = results.context.value("inputs", nlohmann::json::array());
+  for (std::size_t d = 0; d < data.input_sha256.size(); ++d)
+    if (d >= recorded.size() || recorded[d].value("sha256", "") != data.input_sha256[d])
+      return "the data file " + spec.data[d].label + " changed since the run (SHA-256 differs)";
+  results.examples = build_examples(spec, data, summarize(results), options);
+  return {};
+}
+
+std::string attach_examples(ResultSet& results, const std::filesystem::path& spec_dir, const ExampleOptions& options) {
+  results.examples = nullptr;
+  if (!results.context.contains("spec")) return "the results do not hold their spec";
+  try {
+    const ExperimentSpec spec = parse_spec(results.context.at("spec").dump(), "the run's spec", spec_dir);
+    return attach_examples(results, spec, options);
+  } catch (const InputError& e) {
+    return std::string("the run's spec cannot be used again: ") + e.what();
+  }
 }
 
 }  // namespace gapmark

@@ -1,5 +1,7 @@
 #include "gapmark/experiment/merge.hpp"
 
+#include "gapmark/experiment/examples.hpp"
+
 #include <fcntl.h>
 #include <unistd.h>
 
@@ -40,6 +42,7 @@ std::string header_difference(const json& a, const json& b) {
 /// A header with the shard index blanked: equal for all shards of one run.
 json run_identity(json header) {
   header["shard"]["index"] = 0;
+  header.erase("spec_dir");  // shards may run from different checkouts
   return header;
 }
 
@@ -161,6 +164,13 @@ ResultSet merge_checkpoints(const std::vector<fs::path>& inputs) {
   json per_method = json::object();
   for (const auto& [m, s] : method_seconds) per_method[m] = s;
   results.timing = {{"fill_seconds_by_method", per_method}, {"checkpoints", heads.size()}};
+  // Example windows need the data again: re-read from the folder the spec
+  // was in when the run started (a single run and a merge do the same).
+  const std::string spec_dir = first.header.value("spec_dir", "");
+  const std::string why_not = attach_examples(results, spec_dir);
+  if (!why_not.empty())
+    results.warnings.push_back({"no-examples", "report", "no example windows in the report: " + why_not,
+                                "run the merge where the data files of the run can be read"});
   return results;
 }
 

@@ -80,6 +80,20 @@ void check_finite_metrics(const ExperimentSpec& spec, TrialRecord& rec, std::vec
 
 }  // namespace
 
+MaskRequest mask_request_for(const ExperimentSpec& spec, const LoadedData& data, const Task& task) {
+  const Series& series = data.series[task.series];
+  const auto& plan = spec.schemes[task.scheme];
+  MaskRequest request{series.values, &series.axis, series.period, spec.holdout, plan.rates[task.rate],
+                      spec.source + ": " + plan.scheme.label + ", series '" + series.label() + "'"};
+  request.name = series.label();
+  for (std::size_t s = 0; s < data.series.size(); ++s) {
+    if (s == task.series || data.dataset[s] != data.dataset[task.series]) continue;
+    request.sibling_names.push_back(data.series[s].label());
+    request.siblings.emplace_back(data.series[s].values);
+  }
+  return request;
+}
+
 std::vector<TrialRecord> run_task(const ExperimentSpec& spec, const LoadedData& data, const Task& task,
                                   std::vector<Warning>& warnings) {
   const Series& series = data.series[task.series];
@@ -87,8 +101,7 @@ std::vector<TrialRecord> run_task(const ExperimentSpec& spec, const LoadedData& 
   std::vector<TrialRecord> records;
   for (std::size_t m = 0; m < spec.methods.size(); ++m) records.push_back(blank_record(spec, data, task, m));
 
-  MaskRequest request{series.values, &series.axis, series.period, spec.holdout, plan.rates[task.rate],
-                      spec.source + ": " + plan.scheme.label + ", series '" + series.label() + "'"};
+  const MaskRequest request = mask_request_for(spec, data, task);
   Rng rng(task_seed(spec.seed, task_key(spec, data, task)));
   Mask mask;
   try {
@@ -314,6 +327,7 @@ void check_resumable(const CheckpointScan& scan, const nlohmann::json& header, c
     throw InputError(where, "the checkpoint is of shard " + scan.shard.text() + ", not " + shard->text());
   nlohmann::json expected = header;
   expected["shard"] = scan.header.at("shard");
+  if (scan.header.contains("spec_dir")) expected["spec_dir"] = scan.header.at("spec_dir");  // the spec may have moved
   if (expected != scan.header)
     throw InputError(where, "the checkpoint does not match this run (its header differs); start again without --resume");
 }

@@ -14,10 +14,17 @@ std::string mask_key(const std::string& series_label, const std::string& scheme_
 MaskTableOutput mask_table(WideTable& table, const std::vector<std::size_t>& columns,
                            const Bound<MaskScheme>& scheme, const MaskTableOptions& options) {
   MaskTableOutput out;
+  const std::vector<std::vector<double>> original = table.values;  // siblings as read, not as masked so far
   for (std::size_t c : columns) {
     MaskRequest request{table.values[c], &table.axis,
                         options.period ? options.period : table.axis.default_period(), options.holdout,
                         options.rate};
+    request.name = table.columns[c];
+    for (std::size_t k = 0; k < table.columns.size(); ++k) {
+      if (k == c) continue;
+      request.sibling_names.push_back(table.columns[k]);
+      request.siblings.emplace_back(original[k]);
+    }
     Rng rng(task_seed(options.seed, mask_key(table.columns[c], scheme.label, options.rate, options.replicate)));
     Mask mask;
     try {

@@ -25,6 +25,12 @@
 // a row the rate cannot be reached and an InputError says so. As with
 // `blocks`, tight room favours short lengths at high rates.
 //
+// Learning from a sibling. With `from=NAME` the pattern is learned from the
+// series of that name on the same time axis (another column of the file,
+// another group of the panel) and replayed on this one: the way to give a
+// complete series the gaps its sibling really has. The series itself may be
+// named too (it then learns from its own gaps, as without `from`).
+//
 // Randomness only from the Rng given (seeded from the task's key).
 #include <algorithm>
 #include <cmath>
@@ -116,13 +122,15 @@ Pattern learn(const MaskRequest& request, PhaseUnit unit, double prior_starts) {
 
 class ReplayScheme final : public MaskScheme {
 public:
-  ReplayScheme(std::string phase, double prior_starts) : phase_(std::move(phase)), prior_starts_(prior_starts) {}
+  ReplayScheme(std::string phase, double prior_starts, std::string from)
+      : phase_(std::move(phase)), prior_starts_(prior_starts), from_(std::move(from)) {}
 
   Mask draw(const MaskRequest& request, Rng& rng) const override {
     check_rate(request.rate, request.where);
     const auto eligible = eligible_positions(request);
     if (eligible.empty()) throw InputError(request.where, "no observed points before the holdout to hide");
-    const Pattern pattern = learn(request, choose_unit(phase_, request), prior_starts_);
+    const MaskRequest source = learning_source(request);
+    const Pattern pattern = learn(source, choose_unit(phase_, source), prior_starts_);
     const std::size_t n = request.values.size();
     const std::size_t limit = request.holdout >= n ? 0 : n - request.holdout;
     const std::size_t target = target_count(request, eligible.size());
@@ -145,6 +153,28 @@ public:
   }
 
 private:
+  /// The series whose gaps are learned: this one, or the sibling named by `from`.
+  MaskRequest learning_source(const MaskRequest& request) const {
+    if (from_.empty() || from_ == request.name) return request;
+    for (std::size_t k = 0; k < request.sibling_names.size(); ++k) {
+      if (request.sibling_names[k] != from_) continue;
+      if (request.siblings[k].size() != request.values.size())
+        throw InputError(request.where, "replay: from='" + from_ + "' is not on this series' time axis (" +
+                                            std::to_string(request.siblings[k].size()) + " points, this one " +
+                                            std::to_string(request.values.size()) + ")");
+      MaskRequest source = request;
+      source.values = request.siblings[k];
+      source.where = request.where + " (gaps learned from '" + from_ + "')";
+      return source;
+    }
+    std::string names;
+    for (std::size_t k = 0; k < request.sibling_names.size() && k < 8; ++k)
+      names += (k ? ", " : "") + request.sibling_names[k];
+    if (request.sibling_names.size() > 8) names += ", ...";
+    throw InputError(request.where, "replay: no series '" + from_ + "' beside this one to learn gaps from" +
+                                        (names.empty() ? std::string(" (it has no siblings)") : " (there are: " + names + ")"));
+  }
+
   /// A learned length, cut to the room left: only the last block of a mask is ever cut.
   static std::size_t draw_length(const std::vector<std::size_t>& lengths, std::size_t room, Rng& rng) {
     return std::min(lengths[rng.below(lengths.size())], room);
@@ -198,6 +228,7 @@ private:
 
   std::string phase_;
   double prior_starts_;
+  std::string from_;
 };
 
 const Registration<MaskScheme> registration{{
@@ -217,10 +248,18 @@ const Registration<MaskScheme> registration{{
                 .min = 0,
                 .max = 1e6,
                 .choices = {},
-                .help = "pseudo gap starts spread evenly over the phases before learning, so that no phase is impossible"}},
+                .help = "pseudo gap starts spread evenly over the phases before learning, so that no phase is impossible"},
+               {.name = "from",
+                .type = ParamType::Text,
+                .default_value = "",
+                .min = 0,
+                .max = 0,
+                .choices = {},
+                .help = "learn the gaps of the series of this name on the same time axis (another column or group); "
+                        "empty: the series' own gaps"}},
     .make =
         [](const ParamValues& p) {
-          return std::make_unique<ReplayScheme>(p.text("phase"), p.real("prior_starts"));
+          return std::make_unique<ReplayScheme>(p.text("phase"), p.real("prior_starts"), p.text("from"));
         },
 }};
 

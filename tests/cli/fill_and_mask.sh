@@ -18,6 +18,20 @@ check "mask reports counts" grep -q "masked $hidden values in 'dissolved_oxygen_
 "$GAPMARK" mask "$DATA" --scheme blocks:rate=0.3,length_mean=12 --holdout 48 --out held.csv --flags 2>/dev/null
 check "holdout never masked" test "$(tail -48 held.csv | awk -F, '{for (i=7;i<=11;i++) s+=$i} END {print s+0}')" -eq 0
 
+# replay learns gaps from a sibling column: pump energy (complete) gets blocks
+# shaped like oxygen's two real outages (6 and 8 hours; the block placed last
+# may be cut to fit); learning from its own (absent) gaps, or from an unknown
+# name, is a one-line error
+"$GAPMARK" mask "$DATA" --scheme replay:rate=0.05,from=dissolved_oxygen_mg_l --column pump_energy_kwh --seed 3 \
+  --out replayed.csv --flags 2>/dev/null
+odd=$(awk -F, 'NR>1 {print $7}' replayed.csv | uniq -c | awk '$2==1 && $1!=6 && $1!=8' | wc -l)
+runs=$(awk -F, 'NR>1 {print $7}' replayed.csv | uniq -c | awk '$2==1' | wc -l)
+check "replay from a sibling: $runs blocks, $odd not 6 or 8 long" test "$runs" -ge 10 -a "$odd" -le 1
+expect_fail 2 "no gaps between observed values" "replay needs gaps to learn from" \
+  "$GAPMARK" mask "$DATA" --scheme replay:rate=0.05 --column pump_energy_kwh --out r.csv
+expect_fail 2 "no series 'oxygen' beside this one" "replay from an unknown series" \
+  "$GAPMARK" mask "$DATA" --scheme replay:rate=0.05,from=oxygen --column pump_energy_kwh --out r.csv
+
 # fill the masked copy (without flag columns) with linear interpolation
 "$GAPMARK" mask "$DATA" --scheme random:rate=0.2 --seed 7 --out plain.csv 2>/dev/null
 "$GAPMARK" fill plain.csv --method linear --out filled.csv 2>fill.log

@@ -185,3 +185,40 @@ TEST_CASE("replay needs real gaps, and a calendar phase needs dated times") {
   CHECK(hidden == 20);
   for (const auto& r : runs(mask)) CHECK(r.second == 1);
 }
+
+TEST_CASE("replay from a sibling: a complete series gets gaps shaped like its sibling's") {
+  const Source s = make_source();
+  const std::vector<double> complete(kHours, 5.0);  // no gaps of its own
+  MaskRequest request{complete, &s.axis, 24, 48, 0.1, "spec.json: /schemes/0, series 'pen1'"};
+  request.name = "pen1";
+  request.sibling_names = {"pen2"};
+  request.siblings = {std::span<const double>(s.values)};
+  const auto scheme = replay(":from=pen2");
+  std::map<std::size_t, std::size_t> seen;
+  for (std::uint64_t seed = 1; seed <= 20; ++seed) {
+    Rng rng(seed);
+    const Mask mask = scheme.impl->draw(request, rng);
+    std::size_t hidden = 0;
+    for (auto m : mask) hidden += m;
+    CHECK(hidden == target_count(request, eligible_positions(request).size()));
+    std::size_t foreign = 0;  // lengths the sibling lacks: only the block placed last may be cut to fit
+    for (const auto& [start, len] : runs(mask)) {
+      foreign += s.lengths.count(len) == 0;
+      ++seen[len];
+    }
+    CHECK(foreign <= 1);
+  }
+  CHECK(seen.size() >= 5);  // many of the sibling's lengths appear
+
+  // Naming the series itself learns from its own gaps: none here.
+  Rng rng(1);
+  CHECK(data_test::error_of([&] { replay(":from=pen1").impl->draw(request, rng); }).find("no gaps between observed") !=
+        std::string::npos);
+  CHECK(data_test::error_of([&] { replay(":from=pen9").impl->draw(request, rng); }) ==
+        "spec.json: /schemes/0, series 'pen1': replay: no series 'pen9' beside this one to learn gaps from (there are: "
+        "pen2)");
+  const std::vector<double> shorter(100, 1.0);
+  request.siblings = {std::span<const double>(shorter)};
+  CHECK(data_test::error_of([&] { scheme.impl->draw(request, rng); }).find("not on this series' time axis") !=
+        std::string::npos);
+}

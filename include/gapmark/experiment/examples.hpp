@@ -15,8 +15,11 @@
 //                                 "filled": [value at masked points, null elsewhere]} ],
 //                   "acf": {"lags", "truth": [r_1..r_L], "methods": [{"method", "values"}]} } ] }
 #include <cstddef>
+#include <filesystem>
+#include <string>
 #include <nlohmann/json.hpp>
 
+#include "gapmark/experiment/record.hpp"
 #include "gapmark/experiment/runner.hpp"
 #include "gapmark/experiment/spec.hpp"
 #include "gapmark/experiment/summary.hpp"
@@ -26,6 +29,7 @@ namespace gapmark {
 struct ExampleOptions {
   std::size_t window = 200;  ///< most points kept per series
   std::size_t top = 3;       ///< leading methods shown
+  std::size_t max_series = 40;  ///< example windows for the first this-many series only
 };
 
 /// Builds the "examples" block. Deterministic: same spec, data and summary,
@@ -33,5 +37,17 @@ struct ExampleOptions {
 /// reason and no fill.
 nlohmann::json build_examples(const ExperimentSpec& spec, const LoadedData& data, const Summary& summary,
                               const ExampleOptions& options = {});
+
+/// Reloads the spec's data, checks that it is the data the run used (the
+/// SHA-256 of each input in results' context) and sets results.examples.
+/// Returns an empty string, or why no examples could be made (the data
+/// changed or is gone); results.examples is then left null.
+std::string attach_examples(ResultSet& results, const ExperimentSpec& spec, const ExampleOptions& options = {});
+
+/// The same for a run known only by its results and the folder its spec was
+/// read from (as recorded in a checkpoint): the spec is re-read from results'
+/// context with paths resolved against `spec_dir`.
+std::string attach_examples(ResultSet& results, const std::filesystem::path& spec_dir,
+                            const ExampleOptions& options = {});
 
 }  // namespace gapmark

@@ -45,6 +45,11 @@ std::vector<Task> build_tasks(const ExperimentSpec& spec, const LoadedData& data
 /// The key a task's seed is derived from: "series\x1fscheme\x1frate\x1freplicate".
 std::string task_key(const ExperimentSpec& spec, const LoadedData& data, const Task& task);
 
+/// The scheme's request for a task: the series, its axis, period and holdout,
+/// the rate, its name, and the other series of the same data source as
+/// siblings (spans into `data`, valid while it lives).
+MaskRequest mask_request_for(const ExperimentSpec& spec, const LoadedData& data, const Task& task);
+
 /// Runs one task: every method on the same mask. Records in method order.
 std::vector<TrialRecord> run_task(const ExperimentSpec& spec, const LoadedData& data,
                                   const Task& task, std::vector<Warning>& warnings);

@@ -21,6 +21,11 @@ struct MaskRequest {
   std::size_t holdout = 0;         ///< last points never masked
   double rate = 0.1;               ///< target fraction of eligible points to hide, in (0, 1)
   std::string where = {};          ///< names the task in errors ("demo.json: /schemes/1, series 'x'"); may be empty
+  std::string name = {};           ///< the series' own name (its label); may be empty
+  /// Other series on the same time axis (same length), by name: schemes that
+  /// learn from a sibling's gaps (replay's `from`) read them; others ignore them.
+  std::vector<std::string> sibling_names = {};
+  std::vector<std::span<const double>> siblings = {};
 };
 
 /// 1 where a point is hidden, 0 elsewhere; the length of the series.
