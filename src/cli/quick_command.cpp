@@ -11,6 +11,7 @@
 #include "gapmark/data/quick_plan.hpp"
 #include "gapmark/data/text_columns.hpp"
 #include "gapmark/error.hpp"
+#include "gapmark/experiment/examples.hpp"
 #include "gapmark/experiment/runner.hpp"
 #include "gapmark/experiment/summary.hpp"
 #include "gapmark/report/reporter.hpp"
@@ -128,7 +129,8 @@ void add_quick(CLI::App& app, Action& action) {
       ExperimentSpec spec = parse_spec(spec_text, spec_path.string(), dir);
       RunOptions run;
       run.threads = o->threads ? o->threads : std::max(1u, std::thread::hardware_concurrency());
-      const ResultSet results = run_experiment(spec, run);
+      ResultSet results = run_experiment(spec, run);
+      attach_examples(results, spec);  // the data were just read: it cannot have changed
       const Summary summary = summarize(results);
       const auto written = write_reports(results, spec.output.string());
       std::cout << data::recommendation_text(data::recommend(summary, results)) << "\n";

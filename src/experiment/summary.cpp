@@ -171,7 +171,12 @@ Summary summarize(const ResultSet& results) {
     for (const auto* t : trials) {
       const std::size_t m = method_index[t->method];
       ms[m].trials++;
-      if (t->status != "ok") ms[m].failures++;
+      // Only a trial that filled every masked point counts: a partial one is
+      // scored on the easier points it did fill, which would flatter it.
+      if (t->status != "ok") {
+        ms[m].failures++;
+        continue;  // ranked last in its replicate (NaN), left out of the means
+      }
       for (std::size_t c = 0; c < results.columns.size(); ++c)
         if (std::isfinite(t->metrics[c])) values[m][c].push_back(t->metrics[c]);
       table[replicate_index[t->replicate]][m] = std::isfinite(t->metrics[rank_col])
@@ -189,8 +194,10 @@ Summary summarize(const ResultSet& results) {
       ms[m].mean_rank = reps ? rank_sum[m] / static_cast<double>(reps) : kNaN;
       ms[m].p_vs_best = kNaN;
     }
-    // Order: by the mean of the ranking metric (direction-aware), methods
-    // without a value last, ties by mean rank.
+    // Order: methods that filled every trial first, then by the mean of the
+    // ranking metric (direction-aware), methods without a value last, ties
+    // by mean rank. A method that failed in some replicates is never "the
+    // best" on the fewer, easier replicates it managed.
     std::vector<std::size_t> order(k);
     std::iota(order.begin(), order.end(), std::size_t{0});
     auto score = [&](std::size_t m) {
@@ -198,6 +205,8 @@ Summary summarize(const ResultSet& results) {
       return std::isnan(v) ? HUGE_VAL : badness(v, direction);
     };
     std::stable_sort(order.begin(), order.end(), [&](auto a, auto b) {
+      const bool fa = ms[a].failures > 0, fb = ms[b].failures > 0;
+      if (fa != fb) return fb;
       if (score(a) != score(b)) return score(a) < score(b);
       return ms[a].mean_rank < ms[b].mean_rank;
     });

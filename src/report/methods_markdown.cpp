@@ -173,9 +173,10 @@ public:
     out += "For each series, scheme and rate, each metric was summarised over replicates by its mean, standard "
            "deviation and the " + level + "% confidence interval of the mean from Student's t distribution" +
            cite(keys_for(uses, "test", "Student-t confidence interval")) +
-           ". Failed trials were counted and excluded from the means. Within each replicate the methods were "
-           "ranked by `" + rc.name + "` (ties sharing the average rank); the mean of these ranks over replicates "
-           "is reported beside the means.";
+           ". Trials in which a method failed or left masked points unfilled were counted, excluded from the means "
+           "and ranked last in their replicate, and such methods were ordered after those that filled every trial. "
+           "Within each replicate the methods were ranked by `" + rc.name + "` (ties sharing the average rank); the "
+           "mean of these ranks over replicates is reported beside the means.";
     const auto vs_best = keys_for(uses, "test", "Wilcoxon signed-rank test against the best, Holm-adjusted");
     if (!vs_best.empty())
       out += " Each method was compared with the best one by a two-sided Wilcoxon signed-rank test on the "

@@ -22,8 +22,9 @@ public:
            short_number(100 * (1 - summary.alpha)) +
            "% Student-t confidence interval of the mean. ✓ marks the methods not distinguishable from "
            "the best at α = " + short_number(summary.alpha) +
-           "; *mean rank* is the average of the within-replicate ranks (1 = best). Failed trials count "
-           "in *failed* and are excluded from the means.\n\n";
+           "; *mean rank* is the average of the within-replicate ranks (1 = best). A trial that left "
+           "masked points unfilled (partial) or failed counts in *failed*, ranks last in its replicate and is "
+           "left out of the means; methods with such trials are listed after those that filled every trial.\n\n";
     out += "Filled values are estimates. A benchmark on synthetic masks can flatter a method when the "
            "real gaps differ; where filled data feed safety decisions, follow the applicable standards "
            "and have a qualified person review the choice.\n";

@@ -249,3 +249,38 @@ TEST_CASE("identical results: p = 1 and tied with the best") {
   CHECK(g.methods[0].mean_rank == 1.5);
   CHECK(std::isnan(g.friedman_statistic));  // every replicate tied throughout
 }
+
+TEST_CASE("partial trials: left out of the means, ranked last, listed after complete methods") {
+  // "gappy" leaves points unfilled in three replicates; the error on the points
+  // it did fill is lower than anyone's, which must not make it the best.
+  gapmark::ResultSet rs;
+  rs.columns = {gapmark::MetricColumn{"rmse", "value", gapmark::Direction::Lower, ""}};
+  for (int r = 0; r < 8; ++r) {
+    rs.trials.push_back(trial("steady", r, 1.0 + 0.01 * r));
+    auto t = trial("gappy", r, r < 3 ? 0.2 : 1.2 + 0.01 * r);
+    if (r < 3) t.status = "partial";
+    rs.trials.push_back(t);
+  }
+  const auto g = gapmark::summarize(rs).groups.at(0);
+  REQUIRE(g.methods.size() == 2);
+  CHECK(g.methods[0].method == "steady");
+  CHECK(g.methods[1].method == "gappy");
+  CHECK(g.methods[1].failures == 3);
+  CHECK(g.methods[1].metrics[0].n == 5);  // only the complete trials
+  CHECK(g.methods[1].metrics[0].mean == doctest::Approx(1.2 + 0.01 * (3 + 4 + 5 + 6 + 7) / 5.0));
+  CHECK(g.methods[1].mean_rank == doctest::Approx(2.0));  // last in every replicate
+}
+
+TEST_CASE("a method that failed some replicates is listed after complete ones, even with a lower mean") {
+  gapmark::ResultSet rs;
+  rs.columns = {gapmark::MetricColumn{"rmse", "value", gapmark::Direction::Lower, ""}};
+  const double nan = std::nan("");
+  for (int r = 0; r < 8; ++r) {
+    rs.trials.push_back(trial("complete", r, 1.0 + 0.01 * r));
+    rs.trials.push_back(trial("lucky", r, r == 0 ? nan : 0.5));
+  }
+  const auto g = gapmark::summarize(rs).groups.at(0);
+  CHECK(g.methods[0].method == "complete");
+  CHECK(g.methods[0].rank == 1);
+  CHECK(g.methods[1].method == "lucky");
+}
