@@ -3,8 +3,10 @@
 // The side a carry cannot reach (before the first observation for forward,
 // after the last for backward) follows the edges policy: the nearest
 // observed value, or left empty.
+#include <algorithm>
 #include <cmath>
 
+#include "gapmark/fill/inner_gaps.hpp"
 #include "gapmark/fill/method.hpp"
 
 namespace gapmark {
@@ -19,12 +21,20 @@ public:
     auto& v = result.values;
     v.assign(request.values.begin(), request.values.end());
     const std::size_t n = v.size();
+    for_each_inner_gap(request.values, [&v, this](std::size_t left, std::size_t right) {
+      std::fill(v.begin() + static_cast<std::ptrdiff_t>(left) + 1, v.begin() + static_cast<std::ptrdiff_t>(right),
+                forward_ ? v[left] : v[right]);
+    });
+    // The end the carry runs into: after the last observation going forward,
+    // before the first going backward.
     if (forward_) {
-      for (std::size_t i = 1; i < n; ++i)
-        if (std::isnan(v[i])) v[i] = v[i - 1];
+      std::size_t last = n;
+      while (last > 0 && std::isnan(v[last - 1])) --last;
+      if (last > 0) std::fill(v.begin() + static_cast<std::ptrdiff_t>(last), v.end(), v[last - 1]);
     } else {
-      for (std::size_t i = n; i-- > 1;)
-        if (std::isnan(v[i - 1])) v[i - 1] = v[i];
+      std::size_t first = 0;
+      while (first < n && std::isnan(v[first])) ++first;
+      if (first < n) std::fill(v.begin(), v.begin() + static_cast<std::ptrdiff_t>(first), v[first]);
     }
     if (edges_nearest_) fill_edges_nearest(v);
     return result;

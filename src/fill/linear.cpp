@@ -3,6 +3,7 @@
 // increments). Edge gaps follow the edges policy.
 #include <cmath>
 
+#include "gapmark/fill/inner_gaps.hpp"
 #include "gapmark/fill/method.hpp"
 
 namespace gapmark {
@@ -16,20 +17,14 @@ public:
     FillResult result;
     auto& v = result.values;
     v.assign(request.values.begin(), request.values.end());
-    const std::size_t n = v.size();
-    std::size_t left = n;  // last observed index seen, n = none yet
-    for (std::size_t i = 0; i < n; ++i) {
-      if (std::isnan(v[i])) continue;
-      if (left != n && i - left > 1) {
-        const double a = v[left], b = v[i];
-        const double span = static_cast<double>(i - left);
-        for (std::size_t j = left + 1; j < i; ++j) {
-          const double t = static_cast<double>(j - left) / span;
-          v[j] = (1.0 - t) * a + t * b;  // no overflow even for values near the double limits
-        }
+    for_each_inner_gap(request.values, [&v](std::size_t left, std::size_t right) {
+      const double a = v[left], b = v[right];
+      const double span = static_cast<double>(right - left);
+      for (std::size_t j = left + 1; j < right; ++j) {
+        const double t = static_cast<double>(j - left) / span;
+        v[j] = (1.0 - t) * a + t * b;  // no overflow even for values near the double limits
       }
-      left = i;
-    }
+    });
     if (edges_nearest_) fill_edges_nearest(v);
     return result;
   }
