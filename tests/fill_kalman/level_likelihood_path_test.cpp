@@ -1,0 +1,72 @@
+// The likelihood pass of the local level model takes a scalar path once the
+// flat prior is gone; the smoother's pass keeps the general matrix step (it
+// records what the backward pass needs). Both must give the same bits.
+#include <doctest/doctest.h>
+
+#include <cmath>
+#include <cstring>
+#include <limits>
+#include <vector>
+
+#include "gapmark/fill/state_space.hpp"
+#include "gapmark/rng.hpp"
+
+namespace ss = gapmark::state_space;
+
+namespace {
+
+constexpr double kNaN = std::numeric_limits<double>::quiet_NaN();
+
+bool same_bits(double a, double b) { return std::memcmp(&a, &b, sizeof a) == 0; }
+
+/// Random-walk level plus noise, with a share missing at random, a missing
+/// stretch in the middle and missing values at both ends (three points
+/// always observed).
+std::vector<double> invented(std::size_t n, double missing, std::uint64_t seed) {
+  gapmark::Rng rng(seed);
+  std::vector<double> y(n);
+  double level = 5;
+  for (std::size_t t = 0; t < n; ++t) {
+    level += rng.uniform() - 0.5;
+    y[t] = level + 2.0 * (rng.uniform() - 0.5);
+    if (rng.bernoulli(missing) && t != 2 && t != n / 3 && t != n - 2) y[t] = kNaN;
+  }
+  for (std::size_t t = n / 2 + 1; t < n / 2 + n / 10; ++t) y[t] = kNaN;
+  y[0] = y[1] = y[n - 1] = kNaN;
+  return y;
+}
+
+}  // namespace
+
+TEST_CASE("local level: the likelihood pass equals the smoother's pass bit for bit") {
+  const auto model = ss::StructuralModel::local_level();
+  int compared = 0;
+  for (std::size_t n : {8, 50, 2000})
+    for (double missing : {0.0, 0.2, 0.6})
+      for (const std::vector<double>& variances :
+           {std::vector<double>{1.0, 1.0}, {0.3, 1e-10}, {1e-10, 0.7}, {2.5, 0.01}, {1e-300, 1e-300}}) {
+        const auto y = invented(n, missing, 17 + n);
+        const ss::LikelihoodParts fast = ss::filter_likelihood(model, y, variances);
+        const ss::LikelihoodParts general = ss::smooth_signal(model, y, variances).likelihood;
+        CAPTURE(n);
+        CAPTURE(missing);
+        CAPTURE(variances[0]);
+        CHECK(fast.observed == general.observed);
+        CHECK(fast.diffuse == general.diffuse);
+        CHECK(fast.finite == general.finite);
+        CHECK(same_bits(fast.sum_v2_over_f, general.sum_v2_over_f));
+        CHECK(same_bits(fast.sum_log_f, general.sum_log_f));
+        CHECK(same_bits(fast.sum_log_f_inf, general.sum_log_f_inf));
+        CHECK(same_bits(fast.concentrated_log_likelihood(), general.concentrated_log_likelihood()));
+        ++compared;
+      }
+  CHECK(compared == 45);
+}
+
+TEST_CASE("local level: a zero variance F stops the likelihood pass as not finite") {
+  // Both variances zero: after the first observation P = 0, so F = 0 at the next one.
+  const std::vector<double> y{1.0, 2.0, kNaN, 3.0};
+  const auto parts = ss::filter_likelihood(ss::StructuralModel::local_level(), y, std::vector<double>{0.0, 0.0});
+  CHECK_FALSE(parts.finite);
+  CHECK(parts.observed == 2);
+}
