@@ -6,7 +6,7 @@
 // cases), with the process CPU time of the same run beside the fit time, as
 // the machine may be shared.
 //
-//   build-<name>/perf/bench_kalman [repeats]
+//   build-<name>/perf/bench_kalman [repeats] [demo]   (demo: the demo-shape rows only)
 #include <algorithm>
 #include <chrono>
 #include <cmath>
@@ -40,11 +40,40 @@ std::vector<double> invented(std::size_t n, std::size_t period, std::uint64_t se
   return y;
 }
 
+/// The demo's shape: hourly data with a daily cycle (period 24), 2,160 points,
+/// 10% missing at random; CPU time per fill (fit + smoothing), over a few series.
+void demo_shape(const ss::StructuralModel& model, std::size_t series) {
+  double cpu_ms = 0, max_cpu_ms = 0;
+  std::size_t evals = 0;
+  for (std::size_t i = 0; i < series; ++i) {
+    const auto y = invented(2160, 24, 777 + i);
+    const std::clock_t start = std::clock();
+    const auto fit = ss::fit_variances(model, y);
+    const auto smooth = ss::smooth_signal(model, y, fit.variances);
+    const double ms = 1000.0 * static_cast<double>(std::clock() - start) / CLOCKS_PER_SEC;
+    if (smooth.mean.size() != y.size()) std::exit(1);
+    cpu_ms += ms;
+    max_cpu_ms = std::max(max_cpu_ms, ms);
+    evals += fit.evaluations;
+  }
+  std::printf("%-26s %8d %8zu %14.1f %14.1f %12.0f\n", model.name().c_str(), 2160, series,
+              cpu_ms / static_cast<double>(series), max_cpu_ms,
+              static_cast<double>(evals) / static_cast<double>(series));
+  std::fflush(stdout);
+}
+
 }  // namespace
 
 int main(int argc, char** argv) {
   const int repeats = argc > 1 ? std::max(1, std::atoi(argv[1])) : 3;
-  std::printf("%-14s %8s %10s %12s %11s %7s %7s %12s\n", "model", "n", "fit ms", "fit cpu ms", "smooth ms",
+  std::printf("Demo shape: hourly, period 24, n = 2,160, 10%% missing; CPU time per fill (fit + smooth)\n");
+  std::printf("%-26s %8s %8s %14s %14s %12s\n", "model", "n", "series", "mean cpu ms", "max cpu ms",
+              "mean evals");
+  for (std::size_t k : {2, 3, 4}) demo_shape(ss::StructuralModel::trigonometric(24, k), 10);
+  demo_shape(ss::StructuralModel::basic_structural(24), 3);
+  if (argc > 2 && std::string(argv[2]) == "demo") return 0;
+  std::printf("\n");
+  std::printf("%-26s %8s %10s %12s %11s %7s %7s %12s\n", "model", "n", "fit ms", "fit cpu ms", "smooth ms",
               "evals", "starts", "us per eval");
   struct Case {
     ss::StructuralModel model;
@@ -53,7 +82,8 @@ int main(int argc, char** argv) {
   const std::vector<Case> cases{{ss::StructuralModel::local_level(), 0},
                                 {ss::StructuralModel::local_linear_trend(), 0},
                                 {ss::StructuralModel::basic_structural(4), 4},
-                                {ss::StructuralModel::basic_structural(12), 12}};
+                                {ss::StructuralModel::basic_structural(12), 12},
+                                {ss::StructuralModel::trigonometric(24, 3), 24}};
   for (const auto& c : cases) {
     for (std::size_t n : {1000, 10000, 100000}) {
       const auto y = invented(n, c.period, 20240 + n);
@@ -77,7 +107,7 @@ int main(int argc, char** argv) {
         smooth_ms = std::min(smooth_ms, std::chrono::duration<double, std::milli>(now - start).count());
         if (smooth.mean.size() != n) return 1;
       }
-      std::printf("%-14s %8zu %10.1f %12.1f %11.1f %7zu %7zu %12.1f\n", c.model.name().c_str(), n, fit_ms,
+      std::printf("%-26s %8zu %10.1f %12.1f %11.1f %7zu %7zu %12.1f\n", c.model.name().c_str(), n, fit_ms,
                   fit_cpu_ms, smooth_ms, fit.evaluations, fit.starts,
                   1000.0 * fit_ms / static_cast<double>(fit.evaluations));
       std::fflush(stdout);

@@ -1,6 +1,6 @@
 // Kalman smoothing: a structural state-space model (local level, local
-// linear trend, or local linear trend plus a dummy seasonal of the request's
-// period) is fitted by maximum likelihood (state_space.hpp), and each gap is
+// linear trend, or local linear trend plus a seasonal of the request's
+// period, in dummy or trigonometric form) is fitted by maximum likelihood (state_space.hpp), and each gap is
 // filled with the smoothed signal, Z a_t given all observations. The variance
 // returned at a filled point is that of the smoothed signal (variance=signal)
 // or of the missing value itself, signal plus irregular (variance=value); it
@@ -14,9 +14,11 @@
 // smoothing; results are scaled back. A constant series is filled with its
 // constant and variance 0 (every variance estimate would be zero).
 #include <cmath>
+#include <cstdint>
 #include <limits>
 #include <string>
 
+#include "gapmark/error.hpp"
 #include "gapmark/fill/method.hpp"
 #include "gapmark/fill/state_space.hpp"
 
@@ -29,11 +31,14 @@ namespace ss = state_space;
 constexpr std::size_t kObservedPerState = 3;
 /// Dummy seasonals beyond this make the state too large to fit quickly.
 constexpr std::size_t kMaxPeriod = 100;
+/// Largest number of trigonometric harmonics accepted.
+constexpr std::int64_t kMaxHarmonics = 50;
 
 class Kalman final : public FillMethod {
 public:
-  Kalman(std::string model, bool edges_nearest, bool value_variance)
-      : model_(std::move(model)), edges_nearest_(edges_nearest), value_variance_(value_variance) {}
+  Kalman(std::string model, std::size_t harmonics, bool edges_nearest, bool value_variance)
+      : model_(std::move(model)), harmonics_(harmonics), edges_nearest_(edges_nearest),
+        value_variance_(value_variance) {}
 
   FillResult fill(const FillRequest& request) const override {
     const auto& x = request.values;
@@ -100,13 +105,21 @@ private:
       throw MethodFailure("model=seasonal needs a seasonal period of at most half the series (period " +
                           std::to_string(period) + ", " + std::to_string(request.values.size()) +
                           " points); set \"period\" in the spec");
+    if (harmonics_ > 0) {
+      if (2 * harmonics_ >= period)
+        throw MethodFailure("harmonics=" + std::to_string(harmonics_) + " needs a period above " +
+                            std::to_string(2 * harmonics_) + " (period " + std::to_string(period) +
+                            " takes at most " + std::to_string((period - 1) / 2) + " harmonics)");
+      return ss::StructuralModel::trigonometric(period, harmonics_);
+    }
     if (period > kMaxPeriod)
       throw MethodFailure("model=seasonal handles periods up to " + std::to_string(kMaxPeriod) + " (period " +
-                          std::to_string(period) + " gives too large a state)");
+                          std::to_string(period) + " gives too large a state; harmonics=k keeps it at 2k + 2)");
     return ss::StructuralModel::basic_structural(period);
   }
 
   std::string model_;
+  std::size_t harmonics_;
   bool edges_nearest_;
   bool value_variance_;
 };
@@ -120,7 +133,16 @@ const Registration<FillMethod> registration{{
                 .default_value = "level",
                 .choices = {"level", "trend", "seasonal"},
                 .help = "level: random-walk level; trend: level and slope; seasonal: level, slope and a "
-                        "dummy seasonal of the series' period"},
+                        "seasonal of the series' period (see harmonics)"},
+               {.name = "harmonics",
+                .type = ParamType::Integer,
+                .default_value = "0",
+                .min = 0,
+                .max = static_cast<double>(kMaxHarmonics),
+                .choices = {},
+                .help = "model=seasonal only: 0 = dummy seasonal (period - 1 states, periods up to 100); "
+                        "k = k trigonometric harmonics of the period sharing one variance (2k states, "
+                        "k below period/2; far faster for long periods)"},
                edges_param(),
                {.name = "variance",
                 .type = ParamType::Choice,
@@ -130,7 +152,10 @@ const Registration<FillMethod> registration{{
                         "itself (signal plus irregular)"}},
     .needs = {.period = false, .siblings = false, .min_observed = 3},
     .make = [](const ParamValues& p) {
-      return std::make_unique<Kalman>(p.text("model"), p.text("edges") == "nearest", p.text("variance") == "value");
+      if (p.integer("harmonics") != 0 && p.text("model") != "seasonal")
+        throw InputError("kalman: harmonics", "applies to model=seasonal only (model=" + p.text("model") + ")");
+      return std::make_unique<Kalman>(p.text("model"), static_cast<std::size_t>(p.integer("harmonics")),
+                                      p.text("edges") == "nearest", p.text("variance") == "value");
     },
 }};
 

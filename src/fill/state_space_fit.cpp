@@ -10,8 +10,10 @@
 // ratios, each bounded to [-23, 23] (ratios 1e-10 .. 1e10). BOBYQA (NLopt,
 // derivative-free, deterministic) maximises the concentrated likelihood from
 // each starting share in fit_starts(); the reference of a start is its
-// largest share. These searches stop at tolerances 100 times coarser than
-// asked (they only need to find the best basin); the best end point is then
+// largest share. These searches are short (at most 30 likelihood passes, at
+// tolerances 1000 times coarser than asked: they only need to find the best
+// basin, and on the stored references they end in the same optimum as
+// searches run to convergence); the best end point is then
 // polished to full tolerance with its own largest variance as the reference,
 // so that a reference whose estimate goes to zero cannot pin the others to a
 // bound. A search stops when a step moves every log ratio by less than the x
@@ -30,8 +32,10 @@ namespace gapmark::state_space {
 namespace {
 
 constexpr double kBound = 23.0;
-/// The searches from the grid stop at tolerances this much coarser than the final polish.
-constexpr double kScreenFactor = 100.0;
+/// The searches from the grid stop at tolerances this much coarser than the final polish...
+constexpr double kScreenFactor = 1000.0;
+/// ...or after this many likelihood passes each.
+constexpr std::size_t kScreenEvaluations = 30;
 /// Innovations below this (sum of v^2/F, unit variances, standardised data) mean an exact fit...
 constexpr double kExactFit = 1e-24;
 /// ...for which each variance is set to this share of the data variance.
@@ -154,7 +158,7 @@ FitResult fit_variances(const StructuralModel& model, std::span<const double> y,
   Search search(model, z);
   for (const auto& share : fit_starts(model)) {
     search.run(share, kScreenFactor * options.x_tolerance, kScreenFactor * options.f_tolerance, 1.0,
-               options.max_evaluations);
+               std::min(kScreenEvaluations, options.max_evaluations));
     ++result.starts;
   }
   if (search.best_relative.empty())

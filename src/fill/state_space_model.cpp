@@ -1,19 +1,41 @@
 // Building the structural models: their variances, their dense system
 // matrices (written out from the definitions, independent of the structured
 // products in the header) and the starting grid for the likelihood search.
+#include <cmath>
 #include <stdexcept>
 
 #include "gapmark/fill/state_space.hpp"
 
 namespace gapmark::state_space {
 
-StructuralModel StructuralModel::local_level() { return StructuralModel(false, 0); }
+StructuralModel::StructuralModel(bool slope, std::size_t period, std::size_t harmonics)
+    : slope_(slope), period_(period), harmonics_(harmonics),
+      seasonal_(harmonics ? 2 * harmonics : period ? period - 1 : 0) {
+  constexpr double kTwoPi = 6.283185307179586;
+  for (std::size_t j = 1; j <= harmonics; ++j) {
+    const double angle = kTwoPi * static_cast<double>(j) / static_cast<double>(period);
+    cos_.push_back(std::cos(angle));
+    sin_.push_back(std::sin(angle));
+  }
+}
 
-StructuralModel StructuralModel::local_linear_trend() { return StructuralModel(true, 0); }
+StructuralModel StructuralModel::local_level() { return StructuralModel(false, 0, 0); }
+
+StructuralModel StructuralModel::local_linear_trend() { return StructuralModel(true, 0, 0); }
 
 StructuralModel StructuralModel::basic_structural(std::size_t period) {
   if (period < 2) throw std::invalid_argument("a seasonal period must be at least 2");
-  return StructuralModel(true, period - 1);
+  return StructuralModel(true, period, 0);
+}
+
+StructuralModel StructuralModel::trigonometric(std::size_t period, std::size_t harmonics) {
+  // The harmonic at half the period (l = pi) would leave c* unobserved; the
+  // dummy seasonal covers the full set of frequencies instead.
+  if (harmonics < 1 || 2 * harmonics >= period)
+    throw std::invalid_argument("a trigonometric seasonal of period " + std::to_string(period) +
+                                " takes 1 to " + std::to_string(period < 3 ? 0 : (period - 1) / 2) +
+                                " harmonics, not " + std::to_string(harmonics));
+  return StructuralModel(true, period, harmonics);
 }
 
 std::vector<std::string> StructuralModel::variance_names() const {
@@ -30,8 +52,16 @@ std::size_t StructuralModel::disturbed_state(std::size_t k) const {
   return seasonal_start();
 }
 
+std::size_t StructuralModel::disturbed_count(std::size_t k) const {
+  const std::size_t first = disturbed_state(k);
+  return seasonal_ && first == seasonal_start() && harmonics_ ? 2 * harmonics_ : 1;
+}
+
 std::string StructuralModel::name() const {
-  if (seasonal_) return "seasonal(" + std::to_string(period()) + ")";
+  if (harmonics_)
+    return "seasonal(" + std::to_string(period_) + ", " + std::to_string(harmonics_) +
+           (harmonics_ == 1 ? " harmonic)" : " harmonics)");
+  if (seasonal_) return "seasonal(" + std::to_string(period_) + ")";
   return slope_ ? "trend" : "level";
 }
 
@@ -43,8 +73,16 @@ Eigen::MatrixXd StructuralModel::transition_matrix() const {
     t(0, 1) = 1;
     t(1, 1) = 1;  // slope_{t+1} = slope_t
   }
-  if (seasonal_) {
-    const auto s0 = static_cast<Eigen::Index>(seasonal_start());
+  const auto s0 = static_cast<Eigen::Index>(seasonal_start());
+  if (harmonics_) {
+    for (std::size_t j = 0; j < harmonics_; ++j) {  // each pair turns by 2 pi (j + 1) / period
+      const auto p = s0 + 2 * static_cast<Eigen::Index>(j);
+      t(p, p) = cos_[j];
+      t(p, p + 1) = sin_[j];
+      t(p + 1, p) = -sin_[j];
+      t(p + 1, p + 1) = cos_[j];
+    }
+  } else if (seasonal_) {
     const auto k = static_cast<Eigen::Index>(seasonal_);
     for (Eigen::Index j = 0; j < k; ++j) t(s0, s0 + j) = -1;       // g_1 = -(sum of the last s-1)
     for (Eigen::Index j = 1; j < k; ++j) t(s0 + j, s0 + j - 1) = 1;  // the others shift by one
@@ -56,6 +94,7 @@ Eigen::RowVectorXd StructuralModel::design_row() const {
   Eigen::RowVectorXd z = Eigen::RowVectorXd::Zero(static_cast<Eigen::Index>(state_dim()));
   z(0) = 1;
   if (seasonal_) z(static_cast<Eigen::Index>(seasonal_start())) = 1;
+  for (std::size_t j = 1; j < harmonics_; ++j) z(static_cast<Eigen::Index>(seasonal_start() + 2 * j)) = 1;
   return z;
 }
 

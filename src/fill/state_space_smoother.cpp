@@ -1,16 +1,16 @@
-// The exactly diffuse Kalman filter and the fixed-interval smoother of the
-// signal (Durbin & Koopman 2012, sections 4.3-4.4 and 5.2-5.3, backward
-// recursions for r_t and N_t, in their "diffuse" form r^(0), r^(1), N^(0),
-// N^(1), N^(2) while the flat prior is being removed).
+// The exactly diffuse Kalman filter's likelihood pass (Durbin & Koopman 2012,
+// sections 4.3 and 5.2; the diffuse likelihood of sec. 7.2.2). The smoother
+// is in state_space_augmented.cpp.
 //
 // The filter runs from the first observed time t0 with a_t0 = 0, P*_t0 = 0,
 // P_inf,t0 = I. Each observation whose F_inf = Z P_inf Z' is positive removes
 // one rank from P_inf; after m of them P_inf is exactly zero and the
 // ordinary filter takes over. Counting ranks (rather than testing P_inf
 // against a tolerance) keeps rounding residue from prolonging that phase.
-//
-// Per step the smoother needs only Z a_t, Z P_t Z', P_t Z' (and P_inf,t Z'
-// in the diffuse phase), v_t and F_t, so storage is O(n m), not O(n m^2).
+// When the first m observations are nearly collinear in the state (a
+// trigonometric season seen over a few hours) F_inf gets small and the
+// likelihood keeps fewer digits (about 1e-4 absolute in the worst stored
+// reference case, see reference/kalman/README.md); the smoother avoids this.
 #include <algorithm>
 #include <cmath>
 #include <limits>
@@ -34,7 +34,8 @@ enum class StepKind : unsigned char {
   Regular,      ///< observed after the diffuse phase
 };
 
-/// What the forward pass keeps for the backward pass, for steps t0 .. n-1.
+/// What the forward pass can record, for steps t0 .. n-1; with a record the
+/// pass takes the general step throughout (filter_likelihood_general).
 struct Record {
   std::vector<StepKind> kind;
   std::vector<double> za, zpz, v, f, f_inf;  ///< Z a, Z P* Z', innovation, F (or F*), F_inf
@@ -65,40 +66,6 @@ private:
   double sum_ = 0;
 };
 
-/// The rest of a likelihood pass for the local level model once its flat
-/// prior is gone (state a, variance p after the prediction into y[0]; h and q
-/// the irregular and level variances). It performs the general step's
-/// operations in the same order on plain scalars, so every sum comes out bit
-/// for bit the same, without 1 x 1 matrices going through memory at each
-/// step. Returns false (parts.finite cleared) when a variance F is not
-/// positive or not finite, as the general step does.
-bool level_likelihood_tail(std::span<const double> y, double a, double p, double h, double q,
-                           LikelihoodParts& parts, LogSum& log_f) {
-  std::size_t observed = 0;
-  double sum_v2_over_f = parts.sum_v2_over_f;
-  for (const double yt : y) {
-    if (!std::isnan(yt)) {
-      ++observed;
-      const double v = yt - a;
-      const double f = p + h;
-      if (!(f > 0) || !std::isfinite(f)) {
-        parts.observed += observed;
-        parts.sum_v2_over_f = sum_v2_over_f;
-        parts.finite = false;
-        return false;
-      }
-      log_f.add(f);
-      sum_v2_over_f += v * v / f;
-      a += p * (v / f);
-      p -= (p / f) * p;
-    }
-    p += q;
-  }
-  parts.observed += observed;
-  parts.sum_v2_over_f = sum_v2_over_f;
-  return true;
-}
-
 std::size_t first_observed(std::span<const double> y) {
   std::size_t t = 0;
   while (t < y.size() && std::isnan(y[t])) ++t;
@@ -109,18 +76,16 @@ template <int M>
 struct Kernel {
   using Vec = Eigen::Matrix<double, M, 1>;
   using Mat = Eigen::Matrix<double, M, M>;
-  using Row = Eigen::Matrix<double, 1, M>;
 
   const StructuralModel& model;
   std::span<const double> variances;
   Eigen::Index m = static_cast<Eigen::Index>(model.state_dim());
-  bool seasonal = model.period() != 0;
-  Eigen::Index s0 = static_cast<Eigen::Index>(model.seasonal_start());
+  std::size_t design_count = model.design_count();
 
-  /// out <- X Z' for a square X: column 0, plus column s0 with a period.
+  /// out <- X Z' for a square X: the sum of the columns that Z picks.
   void times_design(const Mat& x, Vec& out) const {
     out = x.col(0);
-    if (seasonal) out += x.col(s0);
+    for (std::size_t i = 1; i < design_count; ++i) out += x.col(model.design_index(i));
   }
 
   /// X <- T X T', through the structure.
@@ -128,22 +93,17 @@ struct Kernel {
     model.transition(x);
     model.times_transition_transposed(x);
   }
-  /// X <- T' X T.
-  void backward_cov(Mat& x) const {
-    model.transition_transposed(x);
-    model.times_transition(x);
-  }
-  void add_state_noise(Mat& x) const {
+  /// The diagonal of Q: each state's disturbance variance (0 for the undisturbed).
+  Vec noise = [this] {
+    Vec q = Vec::Zero(m);
     for (std::size_t k = 1; k < variances.size(); ++k) {
-      const auto j = static_cast<Eigen::Index>(model.disturbed_state(k));
-      x(j, j) += variances[k];
+      const auto first = static_cast<Eigen::Index>(model.disturbed_state(k));
+      const auto count = static_cast<Eigen::Index>(model.disturbed_count(k));
+      for (Eigen::Index j = first; j < first + count; ++j) q(j) = variances[k];
     }
-  }
-  /// x <- x + c Z' (adds c at the positions Z selects).
-  void add_design(Vec& x, double c) const {
-    x(0) += c;
-    if (seasonal) x(s0) += c;
-  }
+    return q;
+  }();
+  void add_state_noise(Mat& x) const { x.diagonal() += noise; }
 
   LikelihoodParts forward(std::span<const double> y, Record* rec) const {
     LikelihoodParts parts;
@@ -244,13 +204,6 @@ struct Kernel {
       model.transition(a);
       predict_cov(p);
       add_state_noise(p);
-      if constexpr (M == 1) {  // the local level model: the rest on scalars when nothing is recorded
-        if (!rec && !diffuse) {
-          if (!level_likelihood_tail(y.subspan(t0 + i + 1), a(0), p(0, 0), h, variances[1], parts, log_f))
-            return parts;
-          break;
-        }
-      }
     }
     parts.prior_resolved = !diffuse;
     parts.sum_log_f = log_f.total();
@@ -261,140 +214,6 @@ struct Kernel {
     return parts;
   }
 
-  SmoothedSignal smooth(std::span<const double> y) const {
-    SmoothedSignal out;
-    Record rec;
-    out.likelihood = forward(y, &rec);
-    if (!out.likelihood.finite)
-      throw MethodFailure("the Kalman filter met a non-positive or non-finite variance");
-    if (!out.likelihood.prior_resolved)
-      throw MethodFailure("too few observations to identify the " + model.name() +
-                          " model's initial state (" + std::to_string(out.likelihood.observed) + " observed, " +
-                          std::to_string(model.state_dim()) + " states)");
-    const std::size_t n = y.size();
-    const std::size_t t0 = first_observed(y);
-    const std::size_t steps = n - t0;
-    out.mean.assign(n, kNaN);
-    out.variance.assign(n, kNaN);
-
-    // Ordinary phase: r_{t-1} = Z'v/F + L'r, N_{t-1} = Z'Z/F + L'NL, L = T - K Z.
-    Vec r = Vec::Zero(m);
-    Mat nn = Mat::Zero(m, m);
-    Vec tmp = Vec::Zero(m), k = Vec::Zero(m), g = Vec::Zero(m);
-    for (std::size_t i = steps; i-- > rec.diffuse_steps;) {
-      const auto ms = rec.m_star.col(static_cast<Eigen::Index>(i));
-      if (rec.kind[i] == StepKind::Regular) {
-        const double f = rec.f[i];
-        k = ms / f;
-        model.transition(k);  // K = T P Z' / F
-        const double kr = k.dot(r);
-        model.transition_transposed(r);
-        add_design(r, rec.v[i] / f - kr);
-        // L'NL = T'NT - gZ - Z'g' + (K'NK) Z'Z with g = T'NK.
-        tmp.noalias() = nn * k;
-        const double c = k.dot(tmp);
-        g = tmp;
-        model.transition_transposed(g);
-        backward_cov(nn);
-        subtract_design_outer(nn, g);
-        add_design_design(nn, c + 1.0 / f);
-      } else {
-        model.transition_transposed(r);
-        backward_cov(nn);
-      }
-      tmp.noalias() = nn * ms;
-      out.mean[t0 + i] = rec.za[i] + ms.dot(r);
-      out.variance[t0 + i] = std::max(0.0, rec.zpz[i] - ms.dot(tmp));
-    }
-
-    // Diffuse phase, dense (it lasts a few observations).
-    const Mat tm = model.transition_matrix();
-    const Row zr = model.design_row();
-    Vec r0 = r, r1 = Vec::Zero(m);
-    Mat n0 = nn, n1 = Mat::Zero(m, m), n2 = Mat::Zero(m, m);
-    for (std::size_t i = rec.diffuse_steps; i-- > 0;) {
-      const auto col = static_cast<Eigen::Index>(i);
-      const Vec ms = rec.m_star.col(col);
-      const Vec mi = Eigen::Map<const Eigen::VectorXd>(rec.m_inf.data() + col * m, m);
-      if (rec.kind[i] == StepKind::Diffuse) {
-        const double fi = rec.f_inf[i], fs = rec.f[i], v = rec.v[i];
-        const Vec k0 = tm * mi / fi;
-        const Vec k1 = tm * (ms / fi - mi * (fs / (fi * fi)));
-        const Mat l0 = tm - k0 * zr;
-        const Mat l1 = -k1 * zr;
-        const Mat zz = zr.transpose() * zr;
-        const Vec r0n = l0.transpose() * r0;
-        const Vec r1n = zr.transpose() * (v / fi) + l0.transpose() * r1 + l1.transpose() * r0;
-        const Mat n0n = l0.transpose() * n0 * l0;
-        const Mat n1n = zz / fi + l0.transpose() * n1 * l0 + l1.transpose() * n0 * l0 + l0.transpose() * n0 * l1;
-        const Mat n2n = zz * (-fs / (fi * fi)) + l0.transpose() * n2 * l0 + l0.transpose() * n1 * l1 +
-                        l1.transpose() * n1 * l0 + l1.transpose() * n0 * l1;
-        r0 = r0n;
-        r1 = r1n;
-        n0 = n0n;
-        n1 = n1n;
-        n2 = n2n;
-      } else if (rec.kind[i] == StepKind::DiffuseFlat) {
-        // F_inf = 0: P_inf Z' = 0, so K and L are exactly those of the ordinary filter.
-        const double fs = rec.f[i];
-        const Vec k0 = tm * ms / fs;
-        const Mat l0 = tm - k0 * zr;
-        const Vec r0n = zr.transpose() * (rec.v[i] / fs) + l0.transpose() * r0;
-        r1 = (l0.transpose() * r1).eval();
-        r0 = r0n;
-        n0 = (zr.transpose() * zr / fs + l0.transpose() * n0 * l0).eval();
-        n1 = (l0.transpose() * n1 * l0).eval();
-        n2 = (l0.transpose() * n2 * l0).eval();
-      } else {
-        model.transition_transposed(r0);
-        model.transition_transposed(r1);
-        backward_cov(n0);
-        backward_cov(n1);
-        backward_cov(n2);
-      }
-      out.mean[t0 + i] = rec.za[i] + ms.dot(r0) + mi.dot(r1);
-      const double var = rec.zpz[i] - ms.dot(n0 * ms) - 2.0 * mi.dot(n1 * ms) - mi.dot(n2 * mi);
-      out.variance[t0 + i] = std::max(0.0, var);
-    }
-
-    // Before t0: at t0 the state had a = 0, P* = 0, P_inf = I, so its
-    // smoothed mean is r^(1) and its variance -N^(2). With a flat prior the
-    // state one step earlier is T^{-1}(a_{t+1} - n_t), n_t independent of
-    // the data: mean T^{-1} a, variance T^{-1} (V + Q) T^{-T}.
-    Vec state = r1;
-    Mat cov = -n2;
-    for (std::size_t t = t0; t-- > 0;) {
-      model.transition_inverse(state);
-      add_state_noise(cov);
-      model.transition_inverse(cov);
-      auto ct = cov.transpose();
-      model.transition_inverse(ct);
-      out.mean[t] = model.signal_of(state);
-      Vec cz = Vec::Zero(m);
-      times_design(cov, cz);
-      out.variance[t] = std::max(0.0, model.signal_of(cz));
-    }
-    return out;
-  }
-
-  /// X <- X - g Z - Z' g'.
-  void subtract_design_outer(Mat& x, const Vec& g) const {
-    x.col(0) -= g;
-    x.row(0) -= g.transpose();
-    if (seasonal) {
-      x.col(s0) -= g;
-      x.row(s0) -= g.transpose();
-    }
-  }
-  /// X <- X + c Z'Z.
-  void add_design_design(Mat& x, double c) const {
-    x(0, 0) += c;
-    if (seasonal) {
-      x(0, s0) += c;
-      x(s0, 0) += c;
-      x(s0, s0) += c;
-    }
-  }
 };
 
 void check_variances(const StructuralModel& model, std::span<const double> variances) {
@@ -424,20 +243,24 @@ double LikelihoodParts::concentrated_log_likelihood() const {
 LikelihoodParts filter_likelihood(const StructuralModel& model, std::span<const double> y,
                                   std::span<const double> variances) {
   check_variances(model, variances);
-  switch (model.state_dim()) {
+  switch (model.state_dim()) {  // fixed sizes for the level, trend and 1-3 harmonics (or periods 3, 5, 7)
     case 1: return Kernel<1>{model, variances}.forward(y, nullptr);
     case 2: return Kernel<2>{model, variances}.forward(y, nullptr);
+    case 4: return Kernel<4>{model, variances}.forward(y, nullptr);
+    case 6: return Kernel<6>{model, variances}.forward(y, nullptr);
+    case 8: return Kernel<8>{model, variances}.forward(y, nullptr);
     default: return Kernel<Eigen::Dynamic>{model, variances}.forward(y, nullptr);
   }
 }
 
-SmoothedSignal smooth_signal(const StructuralModel& model, std::span<const double> y,
-                             std::span<const double> variances) {
+LikelihoodParts filter_likelihood_general(const StructuralModel& model, std::span<const double> y,
+                                          std::span<const double> variances) {
   check_variances(model, variances);
+  Record scratch;
   switch (model.state_dim()) {
-    case 1: return Kernel<1>{model, variances}.smooth(y);
-    case 2: return Kernel<2>{model, variances}.smooth(y);
-    default: return Kernel<Eigen::Dynamic>{model, variances}.smooth(y);
+    case 1: return Kernel<1>{model, variances}.forward(y, &scratch);
+    case 2: return Kernel<2>{model, variances}.forward(y, &scratch);
+    default: return Kernel<Eigen::Dynamic>{model, variances}.forward(y, &scratch);
   }
 }
 

@@ -41,7 +41,7 @@ TEST_CASE("kalman is registered with its parameters") {
   REQUIRE(e != nullptr);
   std::vector<std::string> names;
   for (const auto& p : e->params) names.push_back(p.name);
-  CHECK(names == std::vector<std::string>{"model", "edges", "variance"});
+  CHECK(names == std::vector<std::string>{"model", "harmonics", "edges", "variance"});
 }
 
 TEST_CASE("observed values come back unchanged; filled points get the smoothed signal and its variance") {
@@ -109,13 +109,57 @@ TEST_CASE("seasonal model follows a season through a gap of a whole period") {
   auto y = truth;
   for (std::size_t t = 48; t < 54; ++t) y[t] = kNaN;
   const auto seasonal = run("model=seasonal", y, 6);
+  const auto trig = run("model=seasonal,harmonics=1", y, 6);  // the sine season is one harmonic
   const auto level = run("model=level", y, 6);
-  double err_s = 0, err_l = 0;
+  double err_s = 0, err_t = 0, err_l = 0;
   for (std::size_t t = 48; t < 54; ++t) {
     err_s += std::abs(seasonal.values[t] - truth[t]);
+    err_t += std::abs(trig.values[t] - truth[t]);
     err_l += std::abs(level.values[t] - truth[t]);
   }
   CHECK(err_s < 0.3 * err_l);
+  CHECK(err_t < 0.3 * err_l);
+}
+
+TEST_CASE("harmonics=k fills with the trigonometric model's smoothed signal") {
+  const auto truth = kalman_test::invented_series(480, 43, 0.05, 0.3, 24, 2.0);
+  auto y = kalman_test::with_random_gaps(truth, 0.2, 44);
+  for (std::size_t t = 200; t < 230; ++t) y[t] = kNaN;
+  const auto out = run("model=seasonal,harmonics=3", y, 24);
+  namespace ss = gapmark::state_space;
+  const auto model = ss::StructuralModel::trigonometric(24, 3);
+  const auto st = ss::standardise(y);
+  const auto fit = ss::fit_variances(model, st.z);
+  const auto sm = ss::smooth_signal(model, st.z, fit.variances);
+  double sq = 0, sq_level = 0;
+  const auto level = run("model=level", y, 24);
+  for (std::size_t t = 0; t < y.size(); ++t) {
+    if (!std::isnan(y[t])) {
+      CHECK(out.values[t] == y[t]);
+      continue;
+    }
+    CHECK(out.values[t] == doctest::Approx(st.centre + st.scale * sm.mean[t]).epsilon(1e-12));
+    CHECK(out.variance[t] == doctest::Approx(st.scale * st.scale * sm.variance[t]).epsilon(1e-12));
+    CHECK(out.variance[t] > 0);
+    sq += (out.values[t] - truth[t]) * (out.values[t] - truth[t]);
+    sq_level += (level.values[t] - truth[t]) * (level.values[t] - truth[t]);
+  }
+  // A daily sine through a 30-hour gap: the season carries it, a level cannot.
+  CHECK(sq < 0.3 * sq_level);
+}
+
+TEST_CASE("harmonics: checked against the period and the model") {
+  const auto y = kalman_test::invented_series(100, 63, 0.3, 0.5);
+  CHECK(failure_of("model=seasonal,harmonics=3", y, 6) ==
+        "harmonics=3 needs a period above 6 (period 6 takes at most 2 harmonics)");
+  CHECK(failure_of("model=seasonal,harmonics=3", y, 7).empty());
+  // The dummy seasonal stops at period 100; two harmonics of a period of 150 are fine.
+  const auto long_series = kalman_test::invented_series(400, 62, 0.3, 0.5, 150, 1.0);
+  CHECK(failure_of("model=seasonal", long_series, 150).find("periods up to") != std::string::npos);
+  CHECK(failure_of("model=seasonal,harmonics=2", long_series, 150).empty());
+  CHECK_THROWS_AS(kalman("model=level,harmonics=2"), gapmark::InputError);
+  CHECK_THROWS_AS(kalman("model=seasonal,harmonics=-1"), gapmark::InputError);
+  CHECK_THROWS_AS(kalman("model=seasonal,harmonics=51"), gapmark::InputError);
 }
 
 TEST_CASE("edges: nearest value with its expected squared error, or left empty") {
@@ -177,18 +221,23 @@ TEST_CASE("a constant series is filled with its constant and variance zero") {
 
 TEST_CASE("a series the model follows exactly is filled exactly") {
   // A straight line for model=trend; a line plus a fixed season for model=seasonal.
-  std::vector<double> line(60), seasonal(60);
+  // For harmonics=2 of period 12, a line plus two fixed harmonics.
+  std::vector<double> line(60), seasonal(60), harmonic(60);
   for (std::size_t t = 0; t < 60; ++t) {
     line[t] = 3.0 + 0.5 * static_cast<double>(t);
     seasonal[t] = line[t] + (t % 4 == 0 ? 2.0 : t % 4 == 1 ? -1.0 : t % 4 == 2 ? 0.5 : -1.5);
+    const double angle = 6.283185307179586 * static_cast<double>(t) / 12;
+    harmonic[t] = line[t] + 1.5 * std::sin(angle + 0.3) - 0.7 * std::cos(2 * angle);
   }
-  auto y = line, ys = seasonal;
-  for (std::size_t t : {5, 6, 7, 30, 41}) y[t] = ys[t] = kNaN;
+  auto y = line, ys = seasonal, yh = harmonic;
+  for (std::size_t t : {5, 6, 7, 30, 41}) y[t] = ys[t] = yh[t] = kNaN;
   const auto out = run("model=trend", y);
   const auto outs = run("model=seasonal", ys, 4);
+  const auto outh = run("model=seasonal,harmonics=2", yh, 12);
   for (std::size_t t : {5, 6, 7, 30, 41}) {
     CHECK(out.values[t] == doctest::Approx(line[t]).epsilon(1e-9));
     CHECK(outs.values[t] == doctest::Approx(seasonal[t]).epsilon(1e-9));
+    CHECK(outh.values[t] == doctest::Approx(harmonic[t]).epsilon(1e-9));
     CHECK(out.variance[t] < 1e-9);
   }
 }
@@ -226,10 +275,13 @@ TEST_CASE("99% missing: no crash, no NaN inside the observed span") {
 
 TEST_CASE("same input, same bytes") {
   const auto y = kalman_test::with_random_gaps(kalman_test::invented_series(80, 91, 0.2, 0.5, 4, 1.0), 0.2, 92);
-  const auto a = run("model=seasonal", y, 4);
-  const auto b = run("model=seasonal", y, 4);
-  CHECK(std::equal(a.values.begin(), a.values.end(), b.values.begin(),
-                   [](double p, double q) { return std::memcmp(&p, &q, sizeof p) == 0; }));
-  CHECK(std::equal(a.variance.begin(), a.variance.end(), b.variance.begin(),
-                   [](double p, double q) { return std::memcmp(&p, &q, sizeof p) == 0; }));
+  for (const std::string args : {"model=seasonal", "model=seasonal,harmonics=1"}) {
+    CAPTURE(args);
+    const auto a = run(args, y, 4);
+    const auto b = run(args, y, 4);
+    CHECK(std::equal(a.values.begin(), a.values.end(), b.values.begin(),
+                     [](double p, double q) { return std::memcmp(&p, &q, sizeof p) == 0; }));
+    CHECK(std::equal(a.variance.begin(), a.variance.end(), b.variance.begin(),
+                     [](double p, double q) { return std::memcmp(&p, &q, sizeof p) == 0; }));
+  }
 }

@@ -2,6 +2,7 @@
 // out from the model definitions, and the starting grid is a set of shares.
 #include <doctest/doctest.h>
 
+#include <cmath>
 #include <numeric>
 
 #include "gapmark/fill/state_space.hpp"
@@ -11,9 +12,11 @@ using gapmark::state_space::StructuralModel;
 namespace {
 
 std::vector<StructuralModel> models() {
-  return {StructuralModel::local_level(), StructuralModel::local_linear_trend(),
-          StructuralModel::basic_structural(2), StructuralModel::basic_structural(4),
-          StructuralModel::basic_structural(12)};
+  return {StructuralModel::local_level(),         StructuralModel::local_linear_trend(),
+          StructuralModel::basic_structural(2),    StructuralModel::basic_structural(4),
+          StructuralModel::basic_structural(12),   StructuralModel::trigonometric(3, 1),
+          StructuralModel::trigonometric(12, 2),   StructuralModel::trigonometric(24, 3),
+          StructuralModel::trigonometric(7, 3)};
 }
 
 Eigen::MatrixXd sample(Eigen::Index rows, Eigen::Index cols, double seed) {
@@ -75,6 +78,49 @@ TEST_CASE("the dummy seasonal sums to zero over a period and the design picks le
   CHECK(model.variance_names() == std::vector<std::string>{"irregular", "level", "slope", "seasonal"});
   CHECK(model.disturbed_state(3) == 2);
   CHECK_THROWS_AS(StructuralModel::basic_structural(1), std::invalid_argument);
+}
+
+TEST_CASE("the trigonometric seasonal: rotations by 2 pi j / s, design on every other state, one variance") {
+  // Durbin & Koopman (2012, sec. 3.2): for harmonic j a 2 x 2 block
+  // [cos l_j, sin l_j; -sin l_j, cos l_j] with l_j = 2 pi j / s, and Z picks
+  // the first state of each pair.
+  const auto model = StructuralModel::trigonometric(24, 3);
+  CHECK(model.state_dim() == 8);
+  CHECK(model.period() == 24);
+  CHECK(model.harmonics() == 3);
+  CHECK(model.name() == "seasonal(24, 3 harmonics)");
+  const Eigen::MatrixXd t = model.transition_matrix();
+  const double pi = 3.141592653589793;
+  for (int j = 1; j <= 3; ++j) {
+    const int p = 2 * j;
+    CHECK(t(p, p) == doctest::Approx(std::cos(2 * pi * j / 24)));
+    CHECK(t(p, p + 1) == doctest::Approx(std::sin(2 * pi * j / 24)));
+    CHECK(t(p + 1, p) == doctest::Approx(-std::sin(2 * pi * j / 24)));
+    CHECK(t(p + 1, p + 1) == doctest::Approx(std::cos(2 * pi * j / 24)));
+  }
+  const Eigen::Matrix2d trend{{1, 1}, {0, 1}};
+  CHECK((t.topLeftCorner(2, 2) - trend).cwiseAbs().maxCoeff() == 0);
+  // Without disturbances the season repeats every 24 steps and sums to zero over them.
+  Eigen::MatrixXd power = Eigen::MatrixXd::Identity(8, 8), sum = Eigen::MatrixXd::Zero(8, 8);
+  for (int i = 0; i < 24; ++i) {
+    sum += power;
+    power = t * power;
+  }
+  CHECK((power.bottomRightCorner(6, 6) - Eigen::MatrixXd::Identity(6, 6)).cwiseAbs().maxCoeff() < 1e-12);
+  CHECK(sum.bottomRightCorner(6, 6).cwiseAbs().maxCoeff() < 1e-12);
+  const Eigen::RowVectorXd z = model.design_row();
+  const Eigen::RowVectorXd picks = (Eigen::RowVectorXd(8) << 1, 0, 1, 0, 1, 0, 1, 0).finished();
+  CHECK((z - picks).cwiseAbs().maxCoeff() == 0);
+  CHECK(model.variance_names() == std::vector<std::string>{"irregular", "level", "slope", "seasonal"});
+  CHECK(model.disturbed_state(3) == 2);
+  CHECK(model.disturbed_count(3) == 6);
+  CHECK(model.disturbed_count(1) == 1);
+  CHECK(StructuralModel::basic_structural(12).disturbed_count(3) == 1);
+  // 1 <= harmonics < period / 2: the harmonic at half the period is left to the dummy form.
+  CHECK_NOTHROW(StructuralModel::trigonometric(7, 3));
+  CHECK_THROWS_AS(StructuralModel::trigonometric(6, 3), std::invalid_argument);
+  CHECK_THROWS_AS(StructuralModel::trigonometric(12, 0), std::invalid_argument);
+  CHECK_THROWS_AS(StructuralModel::trigonometric(2, 1), std::invalid_argument);
 }
 
 TEST_CASE("the starting grid gives shares of the total variance that sum to one") {

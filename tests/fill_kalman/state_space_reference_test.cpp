@@ -1,13 +1,19 @@
 // The state-space filter, smoother and fit against outside references:
 //  - statsmodels UnobservedComponents with exact diffuse initialisation
 //    (reference/kalman/statsmodels_reference.py, stored JSON): smoothed signal
-//    and its variance at fixed variances, log-likelihood, ML fit;
+//    and its variance at fixed variances, log-likelihood, ML fit; dummy
+//    seasonals (seasonal=period) and trigonometric ones (freq_seasonal with
+//    one variance over all harmonics);
+//  - the same model as a dense Gaussian computation in numpy (flat prior on
+//    the initial state: the generalised-least-squares predictor and the
+//    restricted likelihood), made by the same script;
 //  - R's StructTS / tsSmooth / KalmanSmooth (reference/kalman/r_reference.R);
 //  - the Nile estimates published by Durbin & Koopman (2012), quoted from memory.
 #include <doctest/doctest.h>
 
 #include <algorithm>
 #include <cmath>
+#include <cstddef>
 
 #include "gapmark/fill/state_space.hpp"
 #include "kalman_helpers.hpp"
@@ -21,7 +27,10 @@ ss::StructuralModel model_of(const nlohmann::json& c) {
   const std::string kind = c.at("model");
   if (kind == "level") return ss::StructuralModel::local_level();
   if (kind == "trend") return ss::StructuralModel::local_linear_trend();
-  return ss::StructuralModel::basic_structural(c.at("period").get<std::size_t>());
+  const auto period = c.at("period").get<std::size_t>();
+  const auto harmonics = c.at("harmonics").get<std::size_t>();
+  return harmonics == 0 ? ss::StructuralModel::basic_structural(period)
+                        : ss::StructuralModel::trigonometric(period, harmonics);
 }
 
 double max_relative_gap(const std::vector<double>& ours, const std::vector<double>& ref, double floor) {
@@ -37,14 +46,34 @@ double max_relative_gap(const std::vector<double>& ours, const std::vector<doubl
 }  // namespace
 
 TEST_CASE("smoothed signal at fixed variances matches statsmodels (exact diffuse) to 1e-6 relative") {
+  // Where the first observations barely separate the states (the invented
+  // hourly case: three harmonics of a 24-hour season seen over a few hours),
+  // statsmodels' values near the start lose their digits (its variances there
+  // even turn negative); the script records from which index statsmodels
+  // agrees with the dense computation, and the comparison starts there.
   for (const auto& [name, c] : kalman_test::statsmodels_reference().at("cases").items()) {
     CAPTURE(name);
     const auto model = model_of(c);
     const auto y = numbers(c.at("values"));
     const auto variances = c.at("fixed_variances").get<std::vector<double>>();
     const auto s = ss::smooth_signal(model, y, variances);
-    CHECK(max_relative_gap(s.mean, numbers(c.at("fixed_smoothed_signal")), 1.0) < 1e-6);
-    CHECK(max_relative_gap(s.variance, numbers(c.at("fixed_smoothed_signal_variance")), 1e-12) < 1e-6);
+    const auto from = c.at("statsmodels_agrees_with_dense_from").get<std::ptrdiff_t>();
+    CHECK(from < static_cast<std::ptrdiff_t>(y.size()) / 10);
+    auto tail = [from](const std::vector<double>& v) { return std::vector<double>(v.begin() + from, v.end()); };
+    CHECK(max_relative_gap(tail(s.mean), tail(numbers(c.at("fixed_smoothed_signal"))), 1.0) < 1e-6);
+    CHECK(max_relative_gap(tail(s.variance), tail(numbers(c.at("fixed_smoothed_signal_variance"))), 1e-12) < 1e-6);
+  }
+}
+
+TEST_CASE("smoothed signal at fixed variances matches the dense Gaussian computation everywhere to 1e-6 relative") {
+  for (const auto& [name, c] : kalman_test::statsmodels_reference().at("cases").items()) {
+    CAPTURE(name);
+    const auto model = model_of(c);
+    const auto y = numbers(c.at("values"));
+    const auto variances = c.at("fixed_variances").get<std::vector<double>>();
+    const auto s = ss::smooth_signal(model, y, variances);
+    CHECK(max_relative_gap(s.mean, numbers(c.at("dense_smoothed_signal")), 1.0) < 1e-6);
+    CHECK(max_relative_gap(s.variance, numbers(c.at("dense_smoothed_signal_variance")), 1e-12) < 1e-6);
   }
 }
 
@@ -52,7 +81,11 @@ TEST_CASE("diffuse log-likelihood at fixed variances matches statsmodels") {
   // statsmodels carries the flat prior through a leading gap; we restart it at
   // the first observation. That changes only the log F_inf terms, a constant
   // that does not depend on the variances, so the cases with a leading gap are
-  // compared through differences between two sets of variances.
+  // compared through differences between two sets of variances, also with
+  // the dense computation's restricted likelihood. Where the first
+  // observations barely separate the states (statsmodels_agrees_with_dense_from
+  // > 0), a filter that removes the flat prior with them keeps fewer digits:
+  // 1e-3 there (ours and statsmodels' both miss the dense value by about 1e-4).
   for (const auto& [name, c] : kalman_test::statsmodels_reference().at("cases").items()) {
     CAPTURE(name);
     const auto model = model_of(c);
@@ -63,7 +96,9 @@ TEST_CASE("diffuse log-likelihood at fixed variances matches statsmodels") {
     const double ours_ml = ss::filter_likelihood(model, y, ml).log_likelihood();
     const double ref_fixed = c.at("fixed_loglik").get<double>();
     const double ref_ml = c.at("ml_loglik").get<double>();
-    CHECK(std::abs((ours_ml - ours_fixed) - (ref_ml - ref_fixed)) < 1e-5);
+    const double tolerance = c.at("statsmodels_agrees_with_dense_from").get<int>() == 0 ? 1e-5 : 1e-3;
+    CHECK(std::abs((ours_ml - ours_fixed) - (ref_ml - ref_fixed)) < tolerance);
+    CHECK(std::abs((ours_ml - ours_fixed) - c.at("dense_loglik_ml_minus_fixed").get<double>()) < tolerance);
     if (!std::isnan(y.front())) CHECK(std::abs(ours_fixed - ref_fixed) < 1e-6);
   }
 }

@@ -6,14 +6,23 @@
 //   y_t       = Z a_t + e_t,          e_t ~ N(0, H)            (observation)
 //   a_{t+1}   = T a_t + R n_t,        n_t ~ N(0, diag(Q))      (state)
 //
-// Three models, nested:
+// Four models, nested:
 //   local level          state (level);                    variances H, level
 //   local linear trend   state (level, slope);             variances H, level, slope
 //   basic structural     state (level, slope, g_1..g_{s-1}), dummy seasonal of
 //                        period s: g_1,t+1 = -(g_1,t + ... + g_{s-1},t) + w_t;
 //                        variances H, level, slope, seasonal
-// The signal is Z a_t: level, plus the current seasonal effect g_1 in the
-// basic structural model. Its smoothed value is what a gap is filled with.
+//   trigonometric        state (level, slope, c_1, c*_1, ..., c_k, c*_k): k
+//                        harmonics of period s (Durbin & Koopman 2012, sec.
+//                        3.2; Harvey 1989), each pair rotating by
+//                        l_j = 2 pi j / s per step:
+//                          c_j,t+1  =  cos(l_j) c_j,t + sin(l_j) c*_j,t + w_j,t
+//                          c*_j,t+1 = -sin(l_j) c_j,t + cos(l_j) c*_j,t + w*_j,t
+//                        all 2k disturbances with one seasonal variance;
+//                        1 <= k < s/2 (variances H, level, slope, seasonal)
+// The signal is Z a_t: level, plus the current seasonal effect (g_1 in the
+// dummy form, c_1 + ... + c_k in the trigonometric one). Its smoothed value
+// is what a gap is filled with.
 //
 // Initial state: exactly diffuse (Durbin & Koopman 2012, ch. 5): a_1 has a
 // flat prior, carried as a separate "infinite" covariance P_inf that the
@@ -43,21 +52,39 @@ public:
   /// Local linear trend plus a dummy seasonal of `period` (>= 2). Throws
   /// std::invalid_argument for a smaller period.
   static StructuralModel basic_structural(std::size_t period);
+  /// Local linear trend plus `harmonics` trigonometric terms of `period`.
+  /// Throws std::invalid_argument unless 1 <= harmonics < period / 2.
+  static StructuralModel trigonometric(std::size_t period, std::size_t harmonics);
 
   bool has_slope() const { return slope_; }
-  std::size_t period() const { return seasonal_ == 0 ? 0 : seasonal_ + 1; }
-  /// Dimension m of the state vector: 1, 2 or period + 1.
+  /// The seasonal period, 0 without a season.
+  std::size_t period() const { return period_; }
+  /// Number of trigonometric harmonics; 0 for the dummy seasonal (and without a season).
+  std::size_t harmonics() const { return harmonics_; }
+  /// Number of seasonal states: period - 1 (dummy), 2 x harmonics, or 0.
+  std::size_t seasonal_states() const { return seasonal_; }
+  /// Dimension m of the state vector: 1, 2, period + 1 or 2 + 2 x harmonics.
   std::size_t state_dim() const { return 1 + (slope_ ? 1 : 0) + seasonal_; }
-  /// Index of g_1 (the current seasonal effect) in the state; only meaningful with a period.
+  /// Index of the first seasonal state (g_1 or c_1); only meaningful with a period.
   std::size_t seasonal_start() const { return slope_ ? 2 : 1; }
-  /// Number of variances: irregular first, then one per disturbed state.
+  /// Number of variances: irregular first, then one per disturbed component.
   std::size_t variance_count() const { return 2 + (slope_ ? 1 : 0) + (seasonal_ ? 1 : 0); }
   /// "irregular", "level", then "slope" and "seasonal" where present.
   std::vector<std::string> variance_names() const;
-  /// The state disturbed by variance k (k >= 1): level 0, slope 1, seasonal g_1.
+  /// The first state disturbed by variance k (k >= 1): level 0, slope 1, seasonal g_1 or c_1...
   std::size_t disturbed_state(std::size_t k) const;
-  /// Short name: "level", "trend" or "seasonal(s)".
+  /// ...and how many consecutive states it disturbs: 1, or 2 x harmonics for
+  /// the trigonometric seasonal (each with the same variance, independently).
+  std::size_t disturbed_count(std::size_t k) const;
+  /// Short name: "level", "trend", "seasonal(s)" or "seasonal(s, k harmonics)".
   std::string name() const;
+
+  /// Number of states the design Z picks (sums into the signal)...
+  std::size_t design_count() const { return 1 + (seasonal_ == 0 ? 0 : harmonics_ ? harmonics_ : 1); }
+  /// ...and the i-th of them: the level, then g_1 or c_1, c_2, ... (every other state).
+  Eigen::Index design_index(std::size_t i) const {
+    return i == 0 ? 0 : static_cast<Eigen::Index>(seasonal_start() + 2 * (i - 1));
+  }
 
   /// Dense forms, built from the definitions (for checks and inspection).
   Eigen::MatrixXd transition_matrix() const;
@@ -79,16 +106,31 @@ public:
   template <class D>
   void times_transition(Eigen::MatrixBase<D>& x) const;
 
-  /// Z a: the level, plus g_1 with a period.
+  /// Z a: the level, plus the current seasonal effect with a period.
   template <class D>
   double signal_of(const Eigen::MatrixBase<D>& a) const {
-    return seasonal_ ? a(0) + a(seasonal_start()) : a(0);
+    if (seasonal_ == 0) return a(0);
+    if (harmonics_ == 0) return a(0) + a(seasonal_start());
+    double sum = a(0);
+    for (std::size_t i = 1; i <= harmonics_; ++i) sum += a(design_index(i));
+    return sum;
   }
 
 private:
-  StructuralModel(bool slope, std::size_t seasonal) : slope_(slope), seasonal_(seasonal) {}
+  StructuralModel(bool slope, std::size_t period, std::size_t harmonics);
+  /// Each (c_j, c*_j) pair of rows of x: (u, w) <- (cos u + sign sin w,
+  /// cos w - sign sin u); sign -1 turns back.
+  template <class D>
+  void rotate_row_pairs(Eigen::MatrixBase<D>& x, double sign) const;
+  /// The same on each pair of columns of x.
+  template <class D>
+  void rotate_column_pairs(Eigen::MatrixBase<D>& x, double sign) const;
+
   bool slope_ = false;
-  std::size_t seasonal_ = 0;  ///< number of seasonal states: period - 1, or 0
+  std::size_t period_ = 0;
+  std::size_t harmonics_ = 0;
+  std::size_t seasonal_ = 0;  ///< number of seasonal states
+  std::vector<double> cos_, sin_;  ///< cos(l_j), sin(l_j) of the harmonics
 };
 
 /// The pieces of the diffuse log-likelihood from one filter pass.
@@ -116,9 +158,16 @@ struct LikelihoodParts {
 /// (irregular first, model.variance_count() of them).
 LikelihoodParts filter_likelihood(const StructuralModel& model, std::span<const double> y,
                                   std::span<const double> variances);
+/// The same pass through the general matrix step at every time (no scalar
+/// shortcuts): the likelihood that smooth_signal reports.
+LikelihoodParts filter_likelihood_general(const StructuralModel& model, std::span<const double> y,
+                                          std::span<const double> variances);
 
 /// Smoothed signal Z a_t given all of `y`: mean and variance at every t
-/// (including before the first and after the last observation).
+/// (including before the first and after the last observation), by the
+/// augmented filter and smoother (de Jong 1991; Durbin & Koopman 2012, sec.
+/// 5.7), which keeps its digits where the first observations barely
+/// separate the states; with the diffuse log-likelihood of filter_likelihood_general.
 struct SmoothedSignal {
   std::vector<double> mean;
   std::vector<double> variance;
@@ -172,9 +221,38 @@ std::vector<std::vector<double>> fit_starts(const StructuralModel& model);
 // ---------------------------------------------------------------- templates
 
 template <class D>
+void StructuralModel::rotate_row_pairs(Eigen::MatrixBase<D>& x, double sign) const {
+  const Eigen::Index s0 = static_cast<Eigen::Index>(seasonal_start());
+  for (std::size_t j = 0; j < harmonics_; ++j) {
+    const Eigen::Index p = s0 + 2 * static_cast<Eigen::Index>(j);
+    const double c = cos_[j], s = sign * sin_[j];
+    for (Eigen::Index i = 0; i < x.cols(); ++i) {
+      const double u = x(p, i), w = x(p + 1, i);
+      x(p, i) = c * u + s * w;
+      x(p + 1, i) = c * w - s * u;
+    }
+  }
+}
+
+template <class D>
+void StructuralModel::rotate_column_pairs(Eigen::MatrixBase<D>& x, double sign) const {
+  const Eigen::Index s0 = static_cast<Eigen::Index>(seasonal_start());
+  for (std::size_t j = 0; j < harmonics_; ++j) {
+    const Eigen::Index p = s0 + 2 * static_cast<Eigen::Index>(j);
+    const double c = cos_[j], s = sign * sin_[j];
+    for (Eigen::Index i = 0; i < x.rows(); ++i) {
+      const double u = x(i, p), w = x(i, p + 1);
+      x(i, p) = c * u + s * w;
+      x(i, p + 1) = c * w - s * u;
+    }
+  }
+}
+
+template <class D>
 void StructuralModel::transition(Eigen::MatrixBase<D>& a) const {
   if (slope_) a.row(0) += a.row(1);
   if (seasonal_ == 0) return;
+  if (harmonics_) return rotate_row_pairs(a, 1.0);
   const Eigen::Index s0 = static_cast<Eigen::Index>(seasonal_start());
   const Eigen::Index k = static_cast<Eigen::Index>(seasonal_);
   for (Eigen::Index c = 0; c < a.cols(); ++c) {
@@ -189,6 +267,7 @@ template <class D>
 void StructuralModel::transition_transposed(Eigen::MatrixBase<D>& a) const {
   if (slope_) a.row(1) += a.row(0);
   if (seasonal_ == 0) return;
+  if (harmonics_) return rotate_row_pairs(a, -1.0);  // a rotation's transpose turns back
   const Eigen::Index s0 = static_cast<Eigen::Index>(seasonal_start());
   const Eigen::Index k = static_cast<Eigen::Index>(seasonal_);
   for (Eigen::Index c = 0; c < a.cols(); ++c) {
@@ -202,6 +281,7 @@ template <class D>
 void StructuralModel::transition_inverse(Eigen::MatrixBase<D>& a) const {
   if (slope_) a.row(0) -= a.row(1);
   if (seasonal_ == 0) return;
+  if (harmonics_) return rotate_row_pairs(a, -1.0);  // a rotation's inverse is its transpose
   const Eigen::Index s0 = static_cast<Eigen::Index>(seasonal_start());
   const Eigen::Index k = static_cast<Eigen::Index>(seasonal_);
   for (Eigen::Index c = 0; c < a.cols(); ++c) {
@@ -217,6 +297,7 @@ void StructuralModel::times_transition_transposed(Eigen::MatrixBase<D>& x) const
   // Column j of x T' is the sum over i of T(j, i) times column i of x.
   if (slope_) x.col(0) += x.col(1);
   if (seasonal_ == 0) return;
+  if (harmonics_) return rotate_column_pairs(x, 1.0);
   const Eigen::Index s0 = static_cast<Eigen::Index>(seasonal_start());
   const Eigen::Index k = static_cast<Eigen::Index>(seasonal_);
   // New g_1 column: minus the sum of all; the others shift right by one.
@@ -232,6 +313,7 @@ void StructuralModel::times_transition(Eigen::MatrixBase<D>& x) const {
   // Column j of x T is the sum over i of T(i, j) times column i of x.
   if (slope_) x.col(1) += x.col(0);
   if (seasonal_ == 0) return;
+  if (harmonics_) return rotate_column_pairs(x, -1.0);
   const Eigen::Index s0 = static_cast<Eigen::Index>(seasonal_start());
   const Eigen::Index k = static_cast<Eigen::Index>(seasonal_);
   // New column j: old column j + 1 minus old column 0; the last: minus old
