@@ -66,6 +66,40 @@ private:
   double sum_ = 0;
 };
 
+/// The rest of a likelihood pass for the local level model once its flat
+/// prior is gone (state a, variance p after the prediction into y[0]; h and q
+/// the irregular and level variances). It performs the general step's
+/// operations in the same order on plain scalars, so every sum comes out bit
+/// for bit the same, without 1 x 1 matrices going through memory at each
+/// step. Returns false (parts.finite cleared) when a variance F is not
+/// positive or not finite, as the general step does.
+bool level_likelihood_tail(std::span<const double> y, double a, double p, double h, double q,
+                           LikelihoodParts& parts, LogSum& log_f) {
+  std::size_t observed = 0;
+  double sum_v2_over_f = parts.sum_v2_over_f;
+  for (const double yt : y) {
+    if (!std::isnan(yt)) {
+      ++observed;
+      const double v = yt - a;
+      const double f = p + h;
+      if (!(f > 0) || !std::isfinite(f)) {
+        parts.observed += observed;
+        parts.sum_v2_over_f = sum_v2_over_f;
+        parts.finite = false;
+        return false;
+      }
+      log_f.add(f);
+      sum_v2_over_f += v * v / f;
+      a += p * (v / f);
+      p -= (p / f) * p;
+    }
+    p += q;
+  }
+  parts.observed += observed;
+  parts.sum_v2_over_f = sum_v2_over_f;
+  return true;
+}
+
 std::size_t first_observed(std::span<const double> y) {
   std::size_t t = 0;
   while (t < y.size() && std::isnan(y[t])) ++t;
@@ -204,6 +238,13 @@ struct Kernel {
       model.transition(a);
       predict_cov(p);
       add_state_noise(p);
+      if constexpr (M == 1) {  // the local level model: the rest on scalars when nothing is recorded
+        if (!rec && !diffuse) {
+          if (!level_likelihood_tail(y.subspan(t0 + i + 1), a(0), p(0, 0), h, variances[1], parts, log_f))
+            return parts;
+          break;
+        }
+      }
     }
     parts.prior_resolved = !diffuse;
     parts.sum_log_f = log_f.total();
