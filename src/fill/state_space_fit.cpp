@@ -10,7 +10,7 @@
 // ratios, each bounded to [-23, 23] (ratios 1e-10 .. 1e10). BOBYQA (NLopt,
 // derivative-free, deterministic) maximises the concentrated likelihood from
 // each starting share in fit_starts(); the reference of a start is its
-// largest share. These searches are short (at most 30 likelihood passes, at
+// largest share. These searches are short (at most 20 likelihood passes, at
 // tolerances 1000 times coarser than asked: they only need to find the best
 // basin, and on the stored references they end in the same optimum as
 // searches run to convergence); the best end point is then
@@ -35,7 +35,7 @@ constexpr double kBound = 23.0;
 /// The searches from the grid stop at tolerances this much coarser than the final polish...
 constexpr double kScreenFactor = 1000.0;
 /// ...or after this many likelihood passes each.
-constexpr std::size_t kScreenEvaluations = 30;
+constexpr std::size_t kScreenEvaluations = 20;
 /// Innovations below this (sum of v^2/F, unit variances, standardised data) mean an exact fit...
 constexpr double kExactFit = 1e-24;
 /// ...for which each variance is set to this share of the data variance.
