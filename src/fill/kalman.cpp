@@ -146,10 +146,10 @@ const Registration<FillMethod> registration{{
                edges_param(),
                {.name = "variance",
                 .type = ParamType::Choice,
-                .default_value = "signal",
+                .default_value = "value",
                 .choices = {"signal", "value"},
-                .help = "variance returned at filled points: of the smoothed signal, or of the missing value "
-                        "itself (signal plus irregular)"}},
+                .help = "variance returned at filled points: of the missing value itself (signal plus irregular: "
+                        "what an interval for the true value needs), or of the smoothed signal only"}},
     .needs = {.period = false, .siblings = false, .min_observed = 3},
     .make = [](const ParamValues& p) {
       if (p.integer("harmonics") != 0 && p.text("model") != "seasonal")

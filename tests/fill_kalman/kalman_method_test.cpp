@@ -51,7 +51,7 @@ TEST_CASE("observed values come back unchanged; filled points get the smoothed s
   for (std::size_t t = 100; t < 130; ++t) y[t] = kNaN;
   for (const std::string model : {"level", "trend"}) {
     CAPTURE(model);
-    const auto out = run("model=" + model, y);
+    const auto out = run("model=" + model + ",variance=signal", y);
     REQUIRE(out.values.size() == y.size());
     REQUIRE(out.variance.size() == y.size());
     // Same fill as the library's fit and smoother on the standardised data.
@@ -93,6 +93,14 @@ TEST_CASE("variance grows toward the middle of a long gap") {
   CHECK(out.variance[100] > out.variance[115]);
 }
 
+TEST_CASE("the default variance is the missing value's (what an interval for the true value needs)") {
+  const auto truth = kalman_test::invented_series(200, 5, 0.5, 1.0, 0, 0);
+  auto y = kalman_test::with_random_gaps(truth, 0.3, 6);
+  const auto by_default = run("model=level", y);
+  const auto value = run("model=level,variance=value", y);
+  CHECK(by_default.variance == value.variance);
+}
+
 TEST_CASE("variance=value adds the irregular variance to that of the signal") {
   auto y = kalman_test::invented_series(200, 31, 0.3, 1.0);
   y[50] = y[51] = kNaN;
@@ -125,7 +133,7 @@ TEST_CASE("harmonics=k fills with the trigonometric model's smoothed signal") {
   const auto truth = kalman_test::invented_series(480, 43, 0.05, 0.3, 24, 2.0);
   auto y = kalman_test::with_random_gaps(truth, 0.2, 44);
   for (std::size_t t = 200; t < 230; ++t) y[t] = kNaN;
-  const auto out = run("model=seasonal,harmonics=3", y, 24);
+  const auto out = run("model=seasonal,harmonics=3,variance=signal", y, 24);
   namespace ss = gapmark::state_space;
   const auto model = ss::StructuralModel::trigonometric(24, 3);
   const auto st = ss::standardise(y);
