@@ -76,11 +76,11 @@ public:
       if (!std::isfinite(mean) || !std::isfinite(var))
         throw MethodFailure("the smoother gave a non-finite value at point " + std::to_string(t + 1));
       if (t > first && t < last) {
-        set_fill(result, t, data.centre + s * mean, s * s * var);
+        set_fill(result, t, data.centre + s * mean, in_data_units(s, var));
       } else if (edges_nearest_) {
         const std::size_t near = t < first ? first : last;
         const double gap = mean - data.z[near];
-        set_fill(result, t, x[near], s * s * (var + gap * gap));
+        set_fill(result, t, x[near], in_data_units(s, var + gap * gap));
       } else {
         set_fill(result, t, kNaN, kNaN);
       }
@@ -90,6 +90,15 @@ public:
 
 private:
   static constexpr double kNaN = std::numeric_limits<double>::quiet_NaN();
+
+  /// A variance of the standardised data in the data's squared unit, or NaN
+  /// where that is no normal double (data beyond ~1e154 or below ~1e-154,
+  /// whose squares overflow or vanish): interval scores are then n/a, not
+  /// computed from an infinite or zero width.
+  static double in_data_units(double scale, double variance) {
+    const double v = scale * scale * variance;
+    return variance > 0 && !std::isnormal(v) ? kNaN : v;
+  }
 
   static void set_fill(FillResult& r, std::size_t t, double value, double variance) {
     r.values[t] = value;

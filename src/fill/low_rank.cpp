@@ -34,6 +34,7 @@
 // Siblings of a different length, or with no observed value, are left out.
 // A time step observed in no series is filled with the series' observed mean
 // (the estimate there stays at its zero start).
+#include <algorithm>
 #include <cmath>
 #include <cstdint>
 #include <cstring>
@@ -75,10 +76,17 @@ ColumnScale observed_scale(std::span<const double> v) {
   if (count == 0) return s;
   s.centre = sum / static_cast<double>(count);
   if (count < 2) return s;
+  // Squared deviations beyond ~1e154 overflow and below ~1e-154 vanish:
+  // there the deviations are first multiplied by a power of two (exact)
+  // that brings the largest near 1, and the deviation scaled back.
+  double largest = 0.0;
+  for (double x : v)
+    if (!std::isnan(x)) largest = std::max(largest, std::abs(x - s.centre));
+  const int exponent = largest > 1e100 || (largest > 0.0 && largest < 1e-100) ? std::ilogb(largest) : 0;
   double ss = 0.0;
   for (double x : v)
-    if (!std::isnan(x)) ss += (x - s.centre) * (x - s.centre);
-  const double sd = std::sqrt(ss / static_cast<double>(count - 1));
+    if (!std::isnan(x)) ss += std::ldexp(x - s.centre, -exponent) * std::ldexp(x - s.centre, -exponent);
+  const double sd = std::ldexp(std::sqrt(ss / static_cast<double>(count - 1)), exponent);
   if (std::isfinite(sd) && sd > 0.0) s.scale = sd;
   return s;
 }

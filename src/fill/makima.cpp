@@ -7,6 +7,7 @@
 // curve come from Boost.Math's makima, which needs at least four knots; with
 // fewer observed points the method fails with that reason. Gaps outside the
 // observed span follow the edges policy.
+#include <algorithm>
 #include <boost/math/interpolators/makima.hpp>
 #include <cmath>
 #include <vector>
@@ -26,7 +27,16 @@ public:
   FillResult fill(const FillRequest& request) const override {
     check_needs(kNeeds, request);  // Boost's makima needs four knots
     Knots k = observed_knots(request.values);
-    const boost::math::interpolators::makima<std::vector<double>> curve(std::move(k.x), std::move(k.y));
+    // The slope weights multiply slopes by slopes, which overflows for values
+    // beyond ~1e154 and vanishes below ~1e-154. The curve scales with the
+    // data, so such values are first multiplied by a power of two (exact)
+    // that brings the largest magnitude near 1, and the curve scaled back.
+    double largest = 0;
+    for (double y : k.y) largest = std::max(largest, std::abs(y));
+    const int exponent = largest > 1e100 || (largest > 0 && largest < 1e-100) ? std::ilogb(largest) : 0;
+    for (double& y : k.y) y = std::ldexp(y, -exponent);
+    const boost::math::interpolators::makima<std::vector<double>> scaled(std::move(k.x), std::move(k.y));
+    const auto curve = [&](double t) { return std::ldexp(scaled(t), exponent); };
     FillResult result;
     result.values = fill_inside_span(request.values, curve);
     apply_edges(result.values, edges_);

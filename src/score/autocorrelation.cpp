@@ -49,6 +49,20 @@ public:
       if (!std::isfinite(in.filled[t])) return;  // left unfilled
       filled[t] = in.filled[t];
     }
+    // Products of values beyond ~1e154 overflow and below ~1e-154 vanish.
+    // Neither the ACF nor the variance ratio depends on the unit, so such
+    // series are first multiplied by a power of two (exact) that brings the
+    // largest magnitude near 1.
+    double magnitude = 0;
+    for (std::size_t t = 0; t < n; ++t)
+      if (!std::isnan(complete[t])) magnitude = std::max({magnitude, std::abs(complete[t]), std::abs(filled[t])});
+    if (magnitude > 1e100 || (magnitude > 0 && magnitude < 1e-100)) {
+      const int exponent = std::ilogb(magnitude);
+      for (std::size_t t = 0; t < n; ++t) {
+        complete[t] = std::ldexp(complete[t], -exponent);
+        filled[t] = std::ldexp(filled[t], -exponent);
+      }
+    }
 
     std::size_t lags = lags_ ? lags_ : (in.period >= 2 ? 2 * in.period : lags_without_period);
     lags = std::min(lags, n - 1);

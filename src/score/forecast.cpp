@@ -22,6 +22,7 @@
 #include <cmath>
 #include <limits>
 #include <string>
+#include <vector>
 
 #include "gapmark/forecast/holt_winters.hpp"
 #include "gapmark/forecast/mase.hpp"
@@ -93,7 +94,21 @@ public:
       if (!std::isfinite(v)) return;  // a masked point left unfilled
 
     const std::size_t horizon = horizon_ ? std::min(horizon_, in.holdout) : in.holdout;
-    const auto actual = in.truth.subspan(train_n, horizon);
+    std::vector<double> actual(in.truth.begin() + static_cast<std::ptrdiff_t>(train_n),
+                               in.truth.begin() + static_cast<std::ptrdiff_t>(train_n + horizon));
+    // Squares of values beyond ~1e154 overflow in the fit and below ~1e-154
+    // vanish. MASE does not depend on the unit, so such series are first
+    // multiplied by a power of two (exact) that brings the largest magnitude
+    // near 1.
+    double largest = 0;
+    for (const auto* part : {&complete, &filled, &actual})
+      for (double v : *part)
+        if (std::isfinite(v)) largest = std::max(largest, std::abs(v));
+    if (largest > 1e100 || (largest > 0 && largest < 1e-100)) {
+      const int exponent = std::ilogb(largest);
+      for (auto* part : {&complete, &filled, &actual})
+        for (double& v : *part) v = std::ldexp(v, -exponent);
+    }
     const double scale = forecast::seasonal_naive_scale(complete, in.period);
 
     const auto from_filled = forecast_with(model_, filled, in.period, horizon);

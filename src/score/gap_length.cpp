@@ -53,25 +53,42 @@ public:
     }
     const Mask& mask = *in.mask;
     auto missing = [&](std::size_t i) { return mask[i] != 0 || std::isnan(in.truth[i]); };
-    for (std::size_t i = 0; i < n;) {
-      if (!missing(i)) {
-        ++i;
-        continue;
+    // Calls visit(class, error) for every scored point.
+    const auto each_error = [&](const auto& visit) {
+      for (std::size_t i = 0; i < n;) {
+        if (!missing(i)) {
+          ++i;
+          continue;
+        }
+        std::size_t end = i;
+        while (end < n && missing(end)) ++end;
+        const std::size_t length = end - i;
+        const std::size_t cls = length <= short_max_ ? 0 : length < long_min_ ? 1 : 2;
+        for (std::size_t k = i; k < end; ++k)
+          if (mask[k] && !std::isnan(in.filled[k]) && !std::isnan(in.truth[k])) visit(cls, in.filled[k] - in.truth[k]);
+        i = end;
       }
-      std::size_t end = i;
-      while (end < n && missing(end)) ++end;
-      const std::size_t length = end - i;
-      const std::size_t cls = length <= short_max_ ? 0 : length < long_min_ ? 1 : 2;
-      for (std::size_t k = i; k < end; ++k) {
-        if (!mask[k] || std::isnan(in.filled[k]) || std::isnan(in.truth[k])) continue;
-        const double e = in.filled[k] - in.truth[k];
-        sq[cls] += e * e;
-        ++count[cls];
-      }
-      i = end;
+    };
+    double largest = 0;
+    each_error([&](std::size_t cls, double e) {
+      sq[cls] += e * e;
+      ++count[cls];
+      largest = std::max(largest, std::abs(e));
+    });
+    // Squares of errors beyond ~1e154 overflow and below ~1e-154 lose digits
+    // or vanish: there the errors are first multiplied by a power of two
+    // that brings the largest near 1 (exact), and the roots scaled back.
+    int exponent = 0;
+    if (std::isfinite(largest) && largest > 0 && (largest > 1e100 || largest < 1e-100)) {
+      exponent = std::ilogb(largest);
+      sq[0] = sq[1] = sq[2] = 0;
+      each_error([&](std::size_t cls, double e) {
+        const double scaled = std::ldexp(e, -exponent);
+        sq[cls] += scaled * scaled;
+      });
     }
     for (std::size_t c = 0; c < 3; ++c)
-      out[c] = count[c] ? std::sqrt(sq[c] / static_cast<double>(count[c])) : nan;
+      out[c] = count[c] ? std::ldexp(std::sqrt(sq[c] / static_cast<double>(count[c])), exponent) : nan;
   }
 
 private:

@@ -118,13 +118,11 @@ TEST_CASE("edge case: magnitudes near 1e-300") {
   check_trials(run_case("tiny", wave(300, 1e-300), 24, 24), /*rmse_at_least_mae=*/false);
 }
 
-// Known bug, outside the runner: the error metrics square raw errors, so
-// errors near 1e-301 square to 0 and RMSE comes out 0 while MAE does not
-// (and errors above ~1e154 overflow: the runner then records RMSE as n/a
-// with a "metric-not-finite" warning). Scaling by the largest |error| before
-// squaring fixes both. This case fails while the bug is there (should_fail);
-// once fixed it will fail -- then drop should_fail.
-TEST_CASE("known bug: RMSE underflows to 0 for magnitudes near 1e-300" * doctest::should_fail()) {
+// Regression: the error metrics squared raw errors, so errors near 1e-301
+// squared to 0 and RMSE came out 0 while MAE did not (and errors above
+// ~1e154 overflowed). They are now scaled by a power of two before squaring
+// (src/score/error_metrics.cpp; tests/score has the closed-form check).
+TEST_CASE("RMSE does not underflow to 0 for magnitudes near 1e-300") {
   const auto results = run_case("tiny_rmse", wave(300, 1e-300), 24, 24);
   for (const auto& t : results.trials) {
     if (t.status != "ok") continue;
