@@ -61,6 +61,8 @@ std::vector<double> numbers(const RawData& raw, std::size_t v, const std::vector
     }
     const auto x = parse_double(cell);
     if (!x) throw InputError(raw.where(r), "column '" + raw.value_columns[v] + "': not a number: '" + cell + "'");
+    if (!std::isfinite(*x))
+      throw InputError(raw.where(r), "column '" + raw.value_columns[v] + "': not a finite number: '" + cell + "'");
     out.push_back(*x);
   }
   return out;
