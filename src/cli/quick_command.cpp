@@ -11,7 +11,6 @@
 #include "gapmark/data/quick_plan.hpp"
 #include "gapmark/data/text_columns.hpp"
 #include "gapmark/error.hpp"
-#include "gapmark/experiment/examples.hpp"
 #include "gapmark/experiment/runner.hpp"
 #include "gapmark/experiment/summary.hpp"
 #include "gapmark/report/reporter.hpp"
@@ -129,8 +128,7 @@ void add_quick(CLI::App& app, Action& action) {
       ExperimentSpec spec = parse_spec(spec_text, spec_path.string(), dir);
       RunOptions run;
       run.threads = o->threads ? o->threads : std::max(1u, std::thread::hardware_concurrency());
-      ResultSet results = run_experiment(spec, run);
-      attach_examples(results, spec);  // the data were just read: it cannot have changed
+      const ResultSet results = run_experiment(spec, run);  // with example windows
       const Summary summary = summarize(results);
       const auto written = write_reports(results, spec.output.string());
       std::cout << data::recommendation_text(data::recommend(summary, results)) << "\n";

@@ -1,5 +1,7 @@
 #include "gapmark/experiment/runner.hpp"
 
+#include "gapmark/experiment/examples.hpp"
+
 #include <atomic>
 #include <chrono>
 #include <cmath>
@@ -296,6 +298,7 @@ ResultSet run_experiment(const ExperimentSpec& spec, const RunOptions& options) 
       results.trials.push_back(std::move(r));
     }
   }
+  results.examples = build_examples(spec, data, summarize(results));  // as a folder run has them
   nlohmann::json per_method = nlohmann::json::object();
   for (const auto& [m, s] : method_seconds) per_method[m] = s;
   results.timing = {{"wall_seconds", std::chrono::duration<double>(std::chrono::steady_clock::now() - started).count()},
