@@ -19,14 +19,19 @@ namespace gapmark {
 /// Bit k set when x[k] is missing (NaN), for `count` <= 64 points.
 inline std::uint64_t missing_bits(const double* x, std::size_t count) {
   std::uint64_t bits = 0;
-  std::size_t k = 0;
 #if defined(__SSE2__)
-  for (; k + 2 <= count; k += 2) {  // two points per comparison (NaN is unordered with itself)
-    const __m128d v = _mm_loadu_pd(x + k);
-    bits |= static_cast<std::uint64_t>(_mm_movemask_pd(_mm_cmpunord_pd(v, v))) << k;
+  if (count == 64) {
+    // Four points per mask: NaN is unordered with itself, and the upper
+    // halves of two pairs' comparison results carry one sign bit per point.
+    for (std::size_t k = 0; k < 64; k += 4) {
+      const __m128d a = _mm_loadu_pd(x + k), b = _mm_loadu_pd(x + k + 2);
+      const __m128 nan_a = _mm_castpd_ps(_mm_cmpunord_pd(a, a)), nan_b = _mm_castpd_ps(_mm_cmpunord_pd(b, b));
+      bits |= static_cast<std::uint64_t>(_mm_movemask_ps(_mm_shuffle_ps(nan_a, nan_b, _MM_SHUFFLE(3, 1, 3, 1)))) << k;
+    }
+    return bits;
   }
 #endif
-  for (; k < count; ++k) bits |= static_cast<std::uint64_t>(std::isnan(x[k])) << k;
+  for (std::size_t k = 0; k < count; ++k) bits |= static_cast<std::uint64_t>(std::isnan(x[k])) << k;
   return bits;
 }
 
