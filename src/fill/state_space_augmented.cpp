@@ -68,6 +68,7 @@ public:
     // n_t), n_t independent of the data: mean T^{-1} a, variance T^{-1} (V + Q) T^{-T}.
     VectorXd state = d;
     MatrixXd cov = r_d.solve(r_d.transpose().solve(MatrixXd::Identity(m, m)));
+    VectorXd cz(m);
     for (std::size_t t = t0; t-- > 0;) {
       model_.transition_inverse(state);
       add_state_noise(cov);
@@ -75,7 +76,6 @@ public:
       auto ct = cov.transpose();
       model_.transition_inverse(ct);
       out.mean[t] = model_.signal_of(state);
-      VectorXd cz;
       times_design(cov, cz);
       out.variance[t] = std::max(0.0, model_.signal_of(cz));
     }
@@ -100,18 +100,24 @@ private:
       for (Index j = first; j < first + count; ++j) x(j, j) += variances_[k];
     }
   }
-  /// x <- L' x = T'x - Z'(ms' T'x) / f, for x with m rows.
-  template <class D>
-  void times_l_transposed(Eigen::MatrixBase<D>& x, const VectorXd& ms, double f) const {
+  /// x <- L' x = T'x - Z'(ms' T'x) / f, for x with m rows. Column by
+  /// column, without temporaries (this runs at every step of the backward pass).
+  template <class D, class V>
+  void times_l_transposed(Eigen::MatrixBase<D>& x, const Eigen::MatrixBase<V>& ms, double f) const {
     model_.transition_transposed(x);
-    const Eigen::RowVectorXd c = (ms.transpose() * x) / f;
-    for (Index p : design_) x.row(p) -= c;
+    for (Index j = 0; j < x.cols(); ++j) {
+      const double c = ms.dot(x.col(j)) / f;
+      for (Index p : design_) x(p, j) -= c;
+    }
   }
-  /// x <- x L = x T - (x T ms / f) Z, for x with m columns.
-  void times_l(MatrixXd& x, const VectorXd& ms, double f) const {
+  /// x <- x L = x T - (x T ms / f) Z, for x with m columns; row by row.
+  template <class V>
+  void times_l(MatrixXd& x, const Eigen::MatrixBase<V>& ms, double f) const {
     model_.times_transition(x);
-    const VectorXd g = (x * ms) / f;
-    for (Index p : design_) x.col(p) -= g;
+    for (Index i = 0; i < x.rows(); ++i) {
+      const double g = x.row(i).dot(ms.transpose()) / f;
+      for (Index p : design_) x(i, p) -= g;
+    }
   }
   /// Adds the row `x` to the upper triangular factor u_ by Givens rotations.
   void add_row(VectorXd& x) {
@@ -140,7 +146,7 @@ private:
     ms_.resize(m, steps);
     e_.resize(m, steps);
     u_ = MatrixXd::Zero(m + 1, m + 1);
-    VectorXd a = VectorXd::Zero(m), ms, e, row(m + 1);
+    VectorXd a = VectorXd::Zero(m), ms(m), e(m), ms_over_f(m), row(m + 1);
     MatrixXd big_a = MatrixXd::Identity(m, m), p = MatrixXd::Zero(m, m);
     const double h = variances_[0];
     for (Index i = 0; i < steps; ++i) {
@@ -160,8 +166,9 @@ private:
         v_[i] = v;
         f_[i] = f;
         a += ms * (v / f);
-        big_a.noalias() -= (ms / f) * e.transpose();
-        p.noalias() -= (ms / f) * ms.transpose();
+        ms_over_f = ms / f;
+        big_a.noalias() -= ms_over_f * e.transpose();
+        p.noalias() -= ms_over_f * ms.transpose();
         const double w = 1.0 / std::sqrt(f);
         row.head(m) = e * w;
         row(m) = v * w;
@@ -179,10 +186,10 @@ private:
                 std::vector<double>& variance, std::size_t t0) const {
     const Index m = m_;
     const auto r_d = u_.topLeftCorner(m, m).triangularView<Eigen::Upper>();
-    VectorXd r = VectorXd::Zero(m), w(m);
+    VectorXd r = VectorXd::Zero(m), w(m), n_ms(m);
     MatrixXd nn = MatrixXd::Zero(m, m), big_r = MatrixXd::Zero(m, m);
     for (auto i = static_cast<Index>(y.size()); i-- > 0;) {
-      const VectorXd ms = ms_.col(i);
+      const auto ms = ms_.col(i);
       const auto e = e_.col(i);
       const auto ui = static_cast<std::size_t>(i);
       if (f_[ui] > 0) {
@@ -203,9 +210,11 @@ private:
         model_.times_transition(nn);
       }
       mean[t0 + ui] = za_[ui] + e.dot(d) + ms.dot(r);
-      w.noalias() = e - big_r.transpose() * ms;
-      const VectorXd z = r_d.transpose().solve(w);
-      variance[t0 + ui] = std::max(0.0, zpz_[ui] - ms.dot(nn * ms) + z.squaredNorm());
+      w = e;
+      w.noalias() -= big_r.transpose() * ms;
+      r_d.transpose().solveInPlace(w);
+      n_ms.noalias() = nn * ms;
+      variance[t0 + ui] = std::max(0.0, zpz_[ui] - ms.dot(n_ms) + w.squaredNorm());
     }
   }
 

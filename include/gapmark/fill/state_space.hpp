@@ -205,7 +205,9 @@ struct FitResult {
 /// Maximum-likelihood variances. The common scale is concentrated out; the
 /// free parameters are the logs of the other variances relative to the
 /// reference one, searched by BOBYQA (NLopt) from a fixed grid of starting
-/// shares (see fit_starts). Deterministic. Throws MethodFailure when the
+/// shares (see fit_starts); with two variances (the local level), the one
+/// log ratio is screened on a grid and polished by Brent's method (Boost.Math).
+/// Deterministic. Throws MethodFailure when the
 /// likelihood cannot be evaluated anywhere or too few observations remain.
 /// Data that the model follows exactly (no innovation at all) get every
 /// variance set to 1e-12 of the data variance and a log-likelihood of +inf.
