@@ -6,7 +6,7 @@ set -euo pipefail
 packages=(
   build-essential cmake ninja-build git
   libeigen3-dev libboost-dev libcli11-dev nlohmann-json3-dev doctest-dev
-  libnlopt-cxx-dev libhowardhinnant-date-dev libssl-dev
+  libnlopt-cxx-dev liblapack-dev libhowardhinnant-date-dev libssl-dev
 )
 # Extra packages for optional checks, named on the command line:
 #   --browser  Chromium, for the report's browser test

@@ -2,16 +2,19 @@
 // the time axis, so gaps make the knots uneven): a C2 piecewise cubic with
 // zero second derivative at the first and last knot. The second derivatives
 // at the inner knots solve a symmetric positive definite tridiagonal system,
-// factored by Eigen's sparse LDLT in natural order (no fill-in: O(n)).
+// solved by LAPACK's dptsv (an L D L' factorisation of the tridiagonal: O(n)).
 // Gaps inside the observed span are read off the spline; gaps before the
 // first or after the last observation follow the edges policy.
-#include <Eigen/SparseCholesky>
-#include <Eigen/SparseCore>
 #include <cmath>
+#include <limits>
 #include <vector>
 
 #include "gapmark/fill/knots.hpp"
 #include "gapmark/fill/method.hpp"
+
+// LAPACK (Fortran interface): solves A X = B for a symmetric positive
+// definite tridiagonal A (diagonal d, off-diagonal e); B is overwritten by X.
+extern "C" void dptsv_(const int* n, const int* nrhs, double* d, double* e, double* b, const int* ldb, int* info);
 
 namespace gapmark {
 namespace {
@@ -24,28 +27,26 @@ std::vector<double> natural_second_derivatives(const Knots& k) {
   std::vector<double> M(m, 0.0);
   if (m < 3) return M;
   const std::size_t inner = m - 2;
-  std::vector<Eigen::Triplet<double>> entries;
-  entries.reserve(3 * inner);
-  Eigen::VectorXd rhs(static_cast<Eigen::Index>(inner));
+  if (inner > static_cast<std::size_t>(std::numeric_limits<int>::max()))
+    throw MethodFailure("natural spline: too many knots for one system");
+  // Row i - 1 of the system: h0 M[i-1] + 2 (h0 + h1) M[i] + h1 M[i+1] = 6 (d1 - d0).
+  std::vector<double> diagonal(inner), off(inner > 1 ? inner - 1 : 1), rhs(inner);
   for (std::size_t i = 1; i + 1 < m; ++i) {
     const double h0 = k.x[i] - k.x[i - 1], h1 = k.x[i + 1] - k.x[i];
     const double d0 = (k.y[i] - k.y[i - 1]) / h0, d1 = (k.y[i + 1] - k.y[i]) / h1;
-    const auto r = static_cast<int>(i - 1);
-    entries.emplace_back(r, r, 2.0 * (h0 + h1));
-    if (i + 2 < m) {
-      entries.emplace_back(r + 1, r, h1);  // lower triangle is what LDLT reads
-      entries.emplace_back(r, r + 1, h1);
-    }
-    rhs[r] = 6.0 * (d1 - d0);
+    diagonal[i - 1] = 2.0 * (h0 + h1);
+    if (i + 2 < m) off[i - 1] = h1;
+    rhs[i - 1] = 6.0 * (d1 - d0);
   }
-  Eigen::SparseMatrix<double> A(static_cast<Eigen::Index>(inner), static_cast<Eigen::Index>(inner));
-  A.setFromTriplets(entries.begin(), entries.end());
-  Eigen::SimplicialLDLT<Eigen::SparseMatrix<double>, Eigen::Lower, Eigen::NaturalOrdering<int>> solver(A);
-  if (solver.info() != Eigen::Success) throw MethodFailure("natural spline: the knot system could not be factored");
-  const Eigen::VectorXd sol = solver.solve(rhs);
-  if (solver.info() != Eigen::Success || !sol.allFinite())
-    throw MethodFailure("natural spline: the knot system has no finite solution (values too large?)");
-  for (std::size_t i = 0; i < inner; ++i) M[i + 1] = sol[static_cast<Eigen::Index>(i)];
+  const int n = static_cast<int>(inner), one = 1;
+  int info = 0;
+  dptsv_(&n, &one, diagonal.data(), off.data(), rhs.data(), &n, &info);
+  if (info != 0) throw MethodFailure("natural spline: the knot system could not be factored");
+  for (std::size_t i = 0; i < inner; ++i) {
+    if (!std::isfinite(rhs[i]))
+      throw MethodFailure("natural spline: the knot system has no finite solution (values too large?)");
+    M[i + 1] = rhs[i];
+  }
   return M;
 }
 
