@@ -11,13 +11,15 @@ packages=(
 # Extra packages for optional checks, named on the command line:
 #   --browser  Chromium, for the report's browser test
 #   --fuzz     clang and its runtimes, for the fuzz targets
+#   --slurm    Slurm and munge, for the one-node cluster test (tests/slurm/)
 #   --refs     Python and R libraries that regenerate reference values
 for arg in "$@"; do
   case "$arg" in
     --browser) packages+=(chromium) ;;
     --fuzz) packages+=(clang libclang-rt-14-dev) ;;
+    --slurm) packages+=(slurm-wlm munge) ;;
     --refs) packages+=(python3-numpy python3-scipy python3-pandas python3-statsmodels r-base-core) ;;
-    *) echo "install-deps.sh: unknown option '$arg' (known: --browser --fuzz --refs)" >&2; exit 2 ;;
+    *) echo "install-deps.sh: unknown option '$arg' (known: --browser --fuzz --slurm --refs)" >&2; exit 2 ;;
   esac
 done
 missing=()

@@ -8,22 +8,26 @@
 #
 #   tests/slurm/run_slurm_test.sh GAPMARK SOURCE_DIR WORK_DIR
 # Needs root (munged and slurmd run as root here) and the packages
-# (apt-get install slurm-wlm munge). Exits 77 when they are missing.
+# (tools/install-deps.sh --slurm). Exits 77 (skipped) when they are missing
+# or the daemons cannot start on this machine, saying why; fails (exit 1)
+# when the cluster ran and the merged results differ or are missing. The
+# verdict line is also written to WORK_DIR/verdict.txt (CI prints it).
 set -euo pipefail
 GAPMARK=$(realpath "$1")
 SRC=$(realpath "$2")
 WORK=$(realpath -m "$3")
-for tool in munged mungekey slurmctld slurmd sbatch squeue sinfo scontrol; do
-  if ! command -v "$tool" >/dev/null && [ ! -x "/usr/sbin/$tool" ]; then
-    echo "SKIP: $tool not found (apt-get install slurm-wlm munge)"
-    exit 77
-  fi
-done
-[ "$(id -u)" -eq 0 ] || { echo "SKIP: needs root"; exit 77; }
-export PATH=/usr/sbin:$PATH
-
 rm -rf "$WORK"
 mkdir -p "$WORK"/{munge,state,spool,out}
+verdict() { echo "$*"; echo "$*" >"$WORK/verdict.txt"; }
+skip() { verdict "SKIP: $*"; exit 77; }
+for tool in munged mungekey slurmctld slurmd sbatch squeue sinfo scontrol; do
+  if ! command -v "$tool" >/dev/null && [ ! -x "/usr/sbin/$tool" ]; then
+    skip "$tool not found (tools/install-deps.sh --slurm)"
+  fi
+done
+[ "$(id -u)" -eq 0 ] || skip "needs root to run munged and slurmd"
+export PATH=/usr/sbin:$PATH
+
 chmod 700 "$WORK/munge"
 cd "$WORK"
 pids=()
@@ -32,7 +36,10 @@ cleanup() {
   for p in "${pids[@]}"; do wait "$p" 2>/dev/null || true; done
 }
 trap cleanup EXIT
-fail() { echo "FAIL: $*" >&2; for f in slurmctld.log slurmd.log; do echo "--- $f" >&2; tail -20 "$f" >&2 || true; done; exit 1; }
+logs() { for f in munge/munged.log slurmctld.log slurmd.log slurmctld.out slurmd.out; do echo "--- $f" >&2; tail -20 "$f" >&2 || true; done; }
+fail() { verdict "FAIL: $*" >&2; logs; exit 1; }
+# The daemons could not start: this machine cannot host the test (say why, skip).
+cannot_start() { logs; skip "Slurm could not start on this machine: $*"; }
 
 # --- munge with a key made here
 mungekey --create --keyfile="$WORK/munge/munge.key" --bits=1024
@@ -42,7 +49,7 @@ munged --foreground --force --key-file="$WORK/munge/munge.key" --socket="$WORK/m
   >/dev/null 2>&1 &
 pids+=($!)
 for _ in $(seq 1 50); do [ -S "$WORK/munge/munge.socket" ] && break; sleep 0.1; done
-[ -S "$WORK/munge/munge.socket" ] || fail "munged did not start"
+[ -S "$WORK/munge/munge.socket" ] || cannot_start "munged did not start"
 
 # --- a one-node cluster on private ports
 node=$(hostname -s)
@@ -89,7 +96,7 @@ for _ in $(seq 1 100); do
   if sinfo -h -N -o "%T" 2>/dev/null | grep -qE "^idle"; then ready=1; break; fi
   sleep 0.2
 done
-[ "$ready" -eq 1 ] || fail "the node did not come up: $(sinfo -N 2>&1 | tail -1)"
+[ "$ready" -eq 1 ] || cannot_start "the node did not come up: $(sinfo -N 2>&1 | tail -1)"
 echo "slurm is up: $(sinfo -h -N -o '%N %T %c CPUs')"
 
 # --- the experiment: invented demo data, 3 shards, merged by a dependent job
@@ -119,4 +126,4 @@ strip_timing() { sed '/^ "timing": {/,/^ }/d' "$1"; }
 cmp <(strip_timing single/results.json) <(strip_timing out/merged/results.json) ||
   fail "merged results.json differs from the single-machine run"
 for f in ranking.md ranking.csv; do cmp single/$f out/merged/$f || fail "$f differs"; done
-echo "PASS: 3 Slurm array shards merged by a dependent job equal the single-machine run"
+verdict "PASS: 3 Slurm array shards merged by a dependent job equal the single-machine run"
