@@ -7,6 +7,7 @@
 #include <doctest/doctest.h>
 
 #include <cmath>
+#include <string>
 
 #include "gapmark/forecast/holt_winters.hpp"
 #include "reference_values.hpp"
@@ -25,7 +26,9 @@ bool close(double a, double b, double rel) { return std::abs(a - b) <= rel * std
 }  // namespace
 
 TEST_CASE("initial states equal statsmodels' simple initialisation") {
-  for (const auto& [name, c] : reference().at("cases").items()) {
+  for (const auto& item : reference().at("cases").items()) {
+    const std::string name = item.key();  // a copy: lambdas in INFO cannot capture a structured binding (clang 14)
+    const auto& c = item.value();
     INFO(name);
     const auto y = gapmark::test::r_series(name);
     const auto s = holt_winters_initial_state(y, c.at("period"));
@@ -40,7 +43,9 @@ TEST_CASE("initial states equal statsmodels' simple initialisation") {
 
 TEST_CASE("with fixed smoothing parameters the recursions agree with statsmodels") {
   const std::size_t horizon = reference().at("horizon");
-  for (const auto& [name, c] : reference().at("cases").items()) {
+  for (const auto& item : reference().at("cases").items()) {
+    const std::string name = item.key();
+    const auto& c = item.value();
     const auto y = gapmark::test::r_series(name);
     const auto initial = holt_winters_initial_state(y, c.at("period"));
     REQUIRE(initial.has_value());
@@ -90,7 +95,9 @@ TEST_CASE("fitted smoothing parameters agree with statsmodels within 0.001 and f
   // is the sharper check: ours may not exceed statsmodels' (L-BFGS-B) by
   // more than 1e-6 relative. statsmodels also imposes beta <= alpha and gamma <= 1 - alpha;
   // our box [0, 1]^3 contains that region, so our SSE can only be lower.
-  for (const auto& [name, c] : reference().at("cases").items()) {
+  for (const auto& item : reference().at("cases").items()) {
+    const std::string name = item.key();
+    const auto& c = item.value();
     INFO(name);
     const auto y = gapmark::test::r_series(name);
     const auto fit = holt_winters_fit(y, c.at("period"));
@@ -106,7 +113,9 @@ TEST_CASE("fitted smoothing parameters agree with statsmodels within 0.001 and f
 TEST_CASE("forecast of a held-out stretch agrees with statsmodels' fitted model") {
   // Loose: the two fits differ slightly in their parameters (see above); the
   // forecasts must agree within 1e-4 relative.
-  for (const auto& [name, c] : reference().at("cases").items()) {
+  for (const auto& item : reference().at("cases").items()) {
+    const std::string name = item.key();
+    const auto& c = item.value();
     INFO(name);
     auto y = gapmark::test::r_series(name);
     const auto& h = c.at("holdout");

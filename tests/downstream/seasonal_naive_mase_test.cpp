@@ -6,6 +6,7 @@
 #include <doctest/doctest.h>
 
 #include <cmath>
+#include <string>
 
 #include "gapmark/forecast/mase.hpp"
 #include "gapmark/forecast/seasonal_naive.hpp"
@@ -16,7 +17,9 @@ using namespace gapmark::forecast;
 TEST_CASE("seasonal naive equals the seasonal random walk forecast of statsmodels") {
   const auto ref = gapmark::test::read_reference("values/seasonal_naive_statsmodels.json");
   const std::size_t horizon = ref.at("horizon");
-  for (const auto& [name, c] : ref.at("cases").items()) {
+  for (const auto& item : ref.at("cases").items()) {
+    const std::string name = item.key();  // a copy: lambdas in INFO cannot capture a structured binding (clang 14)
+    const auto& c = item.value();
     INFO(name);
     auto y = gapmark::test::r_series(name);
     y.resize(c.at("train_n").get<std::size_t>());

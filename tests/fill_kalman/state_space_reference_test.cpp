@@ -11,6 +11,8 @@
 //  - the Nile estimates published by Durbin & Koopman (2012), quoted from memory.
 #include <doctest/doctest.h>
 
+#include <string>
+
 #include <algorithm>
 #include <cmath>
 #include <cstddef>
@@ -51,7 +53,9 @@ TEST_CASE("smoothed signal at fixed variances matches statsmodels (exact diffuse
   // statsmodels' values near the start lose their digits (its variances there
   // even turn negative); the script records from which index statsmodels
   // agrees with the dense computation, and the comparison starts there.
-  for (const auto& [name, c] : kalman_test::statsmodels_reference().at("cases").items()) {
+  for (const auto& item : kalman_test::statsmodels_reference().at("cases").items()) {
+    const std::string name = item.key();  // a copy: lambdas in INFO cannot capture a structured binding (clang 14)
+    const auto& c = item.value();
     CAPTURE(name);
     const auto model = model_of(c);
     const auto y = numbers(c.at("values"));
@@ -66,7 +70,9 @@ TEST_CASE("smoothed signal at fixed variances matches statsmodels (exact diffuse
 }
 
 TEST_CASE("smoothed signal at fixed variances matches the dense Gaussian computation everywhere to 1e-6 relative") {
-  for (const auto& [name, c] : kalman_test::statsmodels_reference().at("cases").items()) {
+  for (const auto& item : kalman_test::statsmodels_reference().at("cases").items()) {
+    const std::string name = item.key();
+    const auto& c = item.value();
     CAPTURE(name);
     const auto model = model_of(c);
     const auto y = numbers(c.at("values"));
@@ -86,7 +92,9 @@ TEST_CASE("diffuse log-likelihood at fixed variances matches statsmodels") {
   // observations barely separate the states (statsmodels_agrees_with_dense_from
   // > 0), a filter that removes the flat prior with them keeps fewer digits:
   // 1e-3 there (ours and statsmodels' both miss the dense value by about 1e-4).
-  for (const auto& [name, c] : kalman_test::statsmodels_reference().at("cases").items()) {
+  for (const auto& item : kalman_test::statsmodels_reference().at("cases").items()) {
+    const std::string name = item.key();
+    const auto& c = item.value();
     CAPTURE(name);
     const auto model = model_of(c);
     const auto y = numbers(c.at("values"));
@@ -107,7 +115,9 @@ TEST_CASE("ML fit reaches at least the statsmodels optimum (best of 9 runs) unde
   // Optimisers differ, so the fit is compared loosely: our maximum may not
   // fall short of the likelihood at statsmodels' estimates by more than 1e-3,
   // and the smoothed signals of the two fits agree to 1% of the series' spread.
-  for (const auto& [name, c] : kalman_test::statsmodels_reference().at("cases").items()) {
+  for (const auto& item : kalman_test::statsmodels_reference().at("cases").items()) {
+    const std::string name = item.key();
+    const auto& c = item.value();
     CAPTURE(name);
     const auto model = model_of(c);
     const auto y = numbers(c.at("values"));
