@@ -1,6 +1,8 @@
 // `gapmark merge`: combine the folders of every shard of a run (`gapmark run
 // --shard K/N`) into the results and reports a single run would write.
+#include <algorithm>
 #include <iostream>
+#include <thread>
 
 #include "commands.hpp"
 #include "gapmark/experiment/merge.hpp"
@@ -21,9 +23,10 @@ void add_merge(CLI::App& app, Action& action) {
   cmd->callback([&action, o] {
     action = [o] {
       std::vector<std::filesystem::path> inputs(o->inputs.begin(), o->inputs.end());
-      ResultSet results = merge_checkpoints(inputs);
+      const unsigned threads = std::max(1u, std::thread::hardware_concurrency());
+      ResultSet results = merge_checkpoints(inputs, threads);
       prepare_output_folder(o->out);
-      const auto written = write_final_reports(results, o->out);
+      const auto written = write_final_reports(results, o->out, threads);
       if (!o->quiet)
         std::cerr << "merged " << inputs.size() << " folders (" << results.trials.size() << " trials); wrote "
                   << written.size() << " files to " << o->out << "\n";

@@ -2,8 +2,10 @@
 
 #include <algorithm>
 #include <cmath>
+#include <vector>
 
 #include "gapmark/error.hpp"
+#include "gapmark/parallel_for.hpp"
 #include "gapmark/rng.hpp"
 #include "gapmark/stats/acf.hpp"
 
@@ -161,10 +163,14 @@ nlohmann::json example_for(const ExperimentSpec& spec, const LoadedData& data, c
 
 nlohmann::json build_examples(const ExperimentSpec& spec, const LoadedData& data, const Summary& summary,
                               const ExampleOptions& options) {
+  std::vector<nlohmann::json> built;
+  if (!spec.schemes.empty() && !spec.schemes.front().rates.empty()) {
+    built.resize(std::min(data.series.size(), options.max_series));
+    parallel_for(built.size(), options.threads,
+                 [&](std::size_t s) { built[s] = example_for(spec, data, summary, s, options); });
+  }
   nlohmann::json list = nlohmann::json::array();
-  if (!spec.schemes.empty() && !spec.schemes.front().rates.empty())
-    for (std::size_t s = 0; s < std::min(data.series.size(), options.max_series); ++s)
-      list.push_back(example_for(spec, data, summary, s, options));
+  for (auto& example : built) list.push_back(std::move(example));
   return {{"window", options.window}, {"top", options.top}, {"series", list}};
 }
 

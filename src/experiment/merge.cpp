@@ -5,11 +5,13 @@
 #include <fcntl.h>
 #include <unistd.h>
 
+#include <algorithm>
 #include <cerrno>
 #include <cmath>
 #include <cstring>
 #include <fstream>
 #include <functional>
+#include <future>
 #include <map>
 #include <ostream>
 #include <unordered_set>
@@ -84,7 +86,7 @@ std::size_t splice_point(const std::string& skeleton, const std::string& marker,
 
 }  // namespace
 
-ResultSet merge_checkpoints(const std::vector<fs::path>& inputs) {
+ResultSet merge_checkpoints(const std::vector<fs::path>& inputs, unsigned threads) {
   if (inputs.empty()) throw InputError("merge", "no run or shard folders given");
   std::vector<std::string> names;
   std::vector<CheckpointScan> heads;
@@ -167,7 +169,7 @@ ResultSet merge_checkpoints(const std::vector<fs::path>& inputs) {
   // Example windows need the data again: re-read from the folder the spec
   // was in when the run started (a single run and a merge do the same).
   const std::string spec_dir = first.header.value("spec_dir", "");
-  const std::string why_not = attach_examples(results, spec_dir);
+  const std::string why_not = attach_examples(results, spec_dir, ExampleOptions{.threads = threads});
   if (!why_not.empty())
     results.warnings.push_back({"no-examples", "report", "no example windows in the report: " + why_not,
                                 "run the merge where the data files of the run can be read"});
@@ -267,7 +269,7 @@ fs::path write_temp(const fs::path& path, const std::function<void(std::ostream&
 
 }  // namespace
 
-std::vector<std::string> write_final_reports(const ResultSet& results, const fs::path& dir) {
+std::vector<std::string> write_final_reports(const ResultSet& results, const fs::path& dir, unsigned threads) {
   const Summary summary = summarize(results);
   std::error_code ec;
   fs::create_directories(dir, ec);
@@ -276,23 +278,34 @@ std::vector<std::string> write_final_reports(const ResultSet& results, const fs:
   // holds one report at a time); the names are switched only when all are
   // written, results.json last, so a failure leaves no report behind.
   std::vector<std::pair<fs::path, fs::path>> staged;  // (temporary, final)
+  const fs::path json_path = dir / "results.json";
+  const auto reporters = ReporterRegistry::global().list();
+  const bool json_wanted = std::any_of(reporters.begin(), reporters.end(), [](const auto* entry) {
+    return entry->make(ParamValues{})->file_name() == "results.json";
+  });
+  auto write_json = [&] {
+    return write_temp(json_path, [&](std::ostream& out) { write_results_json(out, results, summary); });
+  };
+  // results.json, the longest to write, on a thread of its own when allowed.
+  std::future<fs::path> json_written;
+  if (json_wanted && threads > 1) json_written = std::async(std::launch::async, write_json);
   try {
-    bool json_wanted = false;
-    for (const auto* entry : ReporterRegistry::global().list()) {
-      auto reporter = entry->make(ParamValues{});
-      if (reporter->file_name() == "results.json") {
-        json_wanted = true;
-        continue;
+    try {
+      for (const auto* entry : reporters) {
+        auto reporter = entry->make(ParamValues{});
+        if (reporter->file_name() == "results.json") continue;
+        const fs::path path = dir / reporter->file_name();
+        const std::string text = reporter->render(results, summary);
+        staged.emplace_back(write_temp(path, [&](std::ostream& out) { out << text; }), path);
       }
-      const fs::path path = dir / reporter->file_name();
-      const std::string text = reporter->render(results, summary);
-      staged.emplace_back(write_temp(path, [&](std::ostream& out) { out << text; }), path);
+    } catch (...) {
+      if (json_written.valid()) try {
+          fs::remove(json_written.get(), ec);
+        } catch (...) {  // its own failure left no file; the first error is the one reported
+        }
+      throw;
     }
-    if (json_wanted) {
-      const fs::path path = dir / "results.json";
-      staged.emplace_back(write_temp(path, [&](std::ostream& out) { write_results_json(out, results, summary); }),
-                          path);
-    }
+    if (json_wanted) staged.emplace_back(json_written.valid() ? json_written.get() : write_json(), json_path);
   } catch (...) {
     for (const auto& [temp, path] : staged) fs::remove(temp, ec);
     throw;

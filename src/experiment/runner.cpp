@@ -298,7 +298,9 @@ ResultSet run_experiment(const ExperimentSpec& spec, const RunOptions& options) 
       results.trials.push_back(std::move(r));
     }
   }
-  results.examples = build_examples(spec, data, summarize(results));  // as a folder run has them
+  // The example windows a folder run has.
+  results.examples =
+      build_examples(spec, data, summarize(results), ExampleOptions{.threads = std::max(1u, options.threads)});
   nlohmann::json per_method = nlohmann::json::object();
   for (const auto& [m, s] : method_seconds) per_method[m] = s;
   results.timing = {{"wall_seconds", std::chrono::duration<double>(std::chrono::steady_clock::now() - started).count()},
@@ -398,11 +400,11 @@ FolderRunStatus run_into_folder(const ExperimentSpec& spec, const RunOptions& op
     status.written.push_back(write_shard_marker(folder.dir, header, status.total));
     return status;
   }
-  ResultSet results = merge_checkpoints({folder.dir});
+  ResultSet results = merge_checkpoints({folder.dir}, std::max(1u, options.threads));
   results.timing["wall_seconds"] = std::chrono::duration<double>(std::chrono::steady_clock::now() - started).count();
   results.timing["threads"] = std::max(1u, options.threads);
   results.timing["resumed_tasks"] = status.resumed;
-  status.written = write_final_reports(results, folder.dir);
+  status.written = write_final_reports(results, folder.dir, std::max(1u, options.threads));
   status.warnings = std::move(results.warnings);
   return status;
 }

@@ -30,6 +30,7 @@ struct ExampleOptions {
   std::size_t window = 200;  ///< most points kept per series
   std::size_t top = 3;       ///< leading methods shown
   std::size_t max_series = 40;  ///< example windows for the first this-many series only
+  unsigned threads = 1;  ///< series built side by side (the result does not depend on it)
 };
 
 /// Builds the "examples" block. Deterministic: same spec, data and summary,

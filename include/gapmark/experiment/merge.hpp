@@ -22,16 +22,19 @@ inline constexpr const char* kShardMarkerFile = "shard.json";
 /// runs of the same spec, data and build, that no shard is given twice or
 /// missing, and that each is finished; errors are one line naming the folder.
 /// Returns the results with trials in canonical order; "timing" holds the
-/// fill seconds per method.
-ResultSet merge_checkpoints(const std::vector<std::filesystem::path>& inputs);
+/// fill seconds per method. The example windows are built on `threads`.
+ResultSet merge_checkpoints(const std::vector<std::filesystem::path>& inputs, unsigned threads = 1);
 
 /// Writes every registered report into `dir`: the same files as
 /// write_reports, but each report goes to a temporary file as soon as it is
 /// rendered and results.json is written piece by piece (write_results_json),
 /// so memory holds the records and one report at a time even for a very
 /// large grid. The files get their names only when all are written
-/// (results.json last); on failure none does.
-std::vector<std::string> write_final_reports(const ResultSet& results, const std::filesystem::path& dir);
+/// (results.json last); on failure none does. With `threads` above 1,
+/// results.json is written on a thread of its own while the other reports
+/// are rendered (the bytes are the same either way).
+std::vector<std::string> write_final_reports(const ResultSet& results, const std::filesystem::path& dir,
+                                             unsigned threads = 1);
 
 /// The results-json reporter's text (results_to_json(...).dump(1) and a
 /// newline), written trial by trial and group by group.
