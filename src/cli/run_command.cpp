@@ -145,7 +145,11 @@ void add_run(CLI::App& app, Action& action) {
         throw InputError("--resume", "names folder " + o->resume + " but --out names " + o->out + "; give one");
       if (!o->out.empty()) spec.output = o->out;
       if (resume && !o->resume.empty()) spec.output = o->resume;
-      FolderRunOptions folder{spec.output, resume, std::nullopt};
+      FolderRunOptions folder{spec.output, resume, std::nullopt, {}};
+      if (!o->quiet)
+        folder.before_reports = [&spec] {
+          std::cerr << "all tasks done; summarising and writing the reports to " << spec.output.string() << "\n";
+        };
       if (!o->shard.empty()) folder.shard = Shard::parse(o->shard, "--shard");
 
       RunOptions options;

@@ -400,6 +400,7 @@ FolderRunStatus run_into_folder(const ExperimentSpec& spec, const RunOptions& op
     status.written.push_back(write_shard_marker(folder.dir, header, status.total));
     return status;
   }
+  if (folder.before_reports) folder.before_reports();
   ResultSet results = merge_checkpoints({folder.dir}, std::max(1u, options.threads));
   results.timing["wall_seconds"] = std::chrono::duration<double>(std::chrono::steady_clock::now() - started).count();
   results.timing["threads"] = std::max(1u, options.threads);

@@ -105,4 +105,9 @@ check "infinite input: nothing written" test ! -e inf_out/results.json
 check "plain progress line when not a terminal" grep -qE "^progress: 12/12 tasks \(100%\)" progress.txt
 "$GAPMARK" run run.json --shard 1/9 --out quiet --quiet >/dev/null 2>quiet.txt
 check "--quiet prints nothing" test ! -s quiet.txt
+# A whole run says when its tasks are done and the reports are being written
+# (on a large grid that takes a while after 100%), then what it wrote.
+"$GAPMARK" run run.json --out announced >/dev/null 2>announced.txt
+check "a whole run announces the reports" test "$(grep -E '^(all tasks done|wrote )' announced.txt | cut -c1-14 | tr '\n' '|')" = "all tasks done|wrote 6 files |"
+check "the announcement names the folder" grep -qx "all tasks done; summarising and writing the reports to announced" announced.txt
 finish

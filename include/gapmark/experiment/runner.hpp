@@ -76,6 +76,10 @@ struct FolderRunOptions {
   std::filesystem::path dir;     ///< output folder: checkpoint, then reports or shard marker
   bool resume = false;           ///< continue the checkpoint in `dir` instead of starting again
   std::optional<Shard> shard;    ///< empty: the whole grid (or, on resume, the checkpoint's shard)
+  /// Called once every task of a whole run is done, before the checkpoint is
+  /// read back and the reports written (which takes a while on large grids);
+  /// may be empty.
+  std::function<void()> before_reports;
 };
 
 struct FolderRunStatus {
