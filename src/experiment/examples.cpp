@@ -97,7 +97,8 @@ nlohmann::json example_for(const ExperimentSpec& spec, const LoadedData& data, c
     return ex;
   }
   const std::vector<double> holed = apply_mask(series.values, mask);
-  const FillRequest fill_request = fill_request_for(data, index, holed);
+  FillRequest fill_request = fill_request_for(data, index, holed);
+  fill_request.working_dir = spec.base_dir.string();  // as in the run
 
   const std::size_t n = series.values.size();
   const std::size_t width = std::min(options.window, n);

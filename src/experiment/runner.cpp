@@ -137,6 +137,7 @@ std::vector<TrialRecord> run_task(const ExperimentSpec& spec, const LoadedData& 
   fill_request.values = holed;
   fill_request.axis = &series.axis;
   fill_request.period = series.period;
+  fill_request.working_dir = spec.base_dir.string();  // relative to ours: the child starts here
   // Siblings cost O(series) per task: gather them only when a method uses them.
   if (needs_siblings(spec))
     for (std::size_t s = 0; s < data.series.size(); ++s) {

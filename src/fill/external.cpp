@@ -83,6 +83,7 @@ public:
     ProgramRun run;
     run.argv = argv_;
     run.timeout_seconds = timeout_;
+    run.working_dir = request.working_dir;
     run.max_output_bytes = kBaseBytes + kBytesPerRow * (n + 1);
     run.environment = {{"GAPMARK_PROTOCOL", "1"},
                        {"GAPMARK_LENGTH", std::to_string(n)},

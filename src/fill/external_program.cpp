@@ -243,6 +243,7 @@ ProgramOutcome run_program(const ProgramRun& run) {
   sigaddset(&default_signals, SIGPIPE);
   posix_spawnattr_setsigmask(&setup.attr, &no_signals);
   posix_spawnattr_setsigdefault(&setup.attr, &default_signals);
+  if (!run.working_dir.empty()) posix_spawn_file_actions_addchdir_np(&setup.actions, run.working_dir.c_str());
   posix_spawnattr_setpgroup(&setup.attr, 0);
   posix_spawnattr_setflags(&setup.attr, POSIX_SPAWN_SETPGROUP | POSIX_SPAWN_SETSIGMASK | POSIX_SPAWN_SETSIGDEF);
 

@@ -34,6 +34,7 @@ struct ProgramRun {
   std::string input;               ///< written to standard input, which is then closed
   double timeout_seconds = 60.0;   ///< the whole run, from start to exit
   std::size_t max_output_bytes = 64u << 20;  ///< more standard output than this is a failure
+  std::string working_dir;         ///< where the program runs (argv[0] with a '/' is found from there); empty: here
 };
 
 struct ProgramOutcome {

@@ -23,6 +23,10 @@ struct FillRequest {
   std::size_t period = 0;                          ///< seasonal period, 0 = none
   std::vector<std::span<const double>> siblings;   ///< other series on the same axis
   std::vector<std::string> sibling_names;
+  /// Where an outside program runs (`external`): the spec's folder in a run,
+  /// so that relative paths in its command read like the spec's data paths;
+  /// empty: the current directory.
+  std::string working_dir;
 };
 
 struct FillResult {
