@@ -7,6 +7,7 @@
 //       .name = "linear", .summary = "...", .params = {...},
 //       .make = [](const gapmark::ParamValues& p) { return std::make_unique<Linear>(p); }}}; }
 #include <algorithm>
+#include <concepts>
 #include <cstddef>
 #include <functional>
 #include <map>
@@ -22,6 +23,7 @@ namespace gapmark {
 /// What an entry needs from the data (shown by `gapmark methods`).
 struct Needs {
   bool period = false;          ///< a seasonal period
+  bool uses_period = false;     ///< uses a period when there is one (some settings need it)
   bool siblings = false;        ///< other series on the same time axis
   std::size_t min_observed = 1; ///< observed values at the least
 };
@@ -43,6 +45,17 @@ struct Bound {
   ParamValues params;
   std::shared_ptr<const Interface> impl;
   std::string label;  ///< canonical "name" or "name:key=value,..."
+};
+
+/// A family may give every entry the same extra parameters, bound and
+/// applied in one place rather than per entry (methods: period, bounds,
+/// transform). It declares `static std::vector<ParamSpec> common_params(const
+/// Needs&)` and `static std::unique_ptr<Interface> wrap(std::unique_ptr<Interface>,
+/// const ParamValues&, const Needs&)`, which applies the given ones.
+template <class Interface>
+concept HasCommonParams = requires(const Needs& needs, const ParamValues& values, std::unique_ptr<Interface> impl) {
+  { Interface::common_params(needs) } -> std::same_as<std::vector<ParamSpec>>;
+  { Interface::wrap(std::move(impl), values, needs) } -> std::same_as<std::unique_ptr<Interface>>;
 };
 
 /// Edit distance, for "did you mean" hints.
@@ -90,13 +103,30 @@ public:
     return out;
   }
 
+  /// Every parameter an entry takes: its own, then the family's common ones.
+  static std::vector<ParamSpec> schema(const Entry<Interface>& entry) {
+    std::vector<ParamSpec> all = entry.params;
+    if constexpr (HasCommonParams<Interface>)
+      for (auto& p : Interface::common_params(entry.needs)) all.push_back(std::move(p));
+    return all;
+  }
+
   Bound<Interface> bind(const CallSpec& call, const std::string& where) const {
     const auto& entry = at(call.name, where);
+    const std::vector<ParamSpec> all = schema(entry);
     Bound<Interface> b;
     b.entry = &entry;
-    b.params = bind_params(entry.params, call, where + " (" + call.name + ")");
-    b.impl = entry.make(b.params);
-    std::string args = b.params.canonical(entry.params);
+    b.params = bind_params(all, call, where + " (" + call.name + ")");
+    std::unique_ptr<Interface> impl = entry.make(b.params);
+    if constexpr (HasCommonParams<Interface>) {
+      try {
+        impl = Interface::wrap(std::move(impl), b.params, entry.needs);
+      } catch (const InputError& e) {
+        throw InputError(where + " (" + call.name + ")", e.what());
+      }
+    }
+    b.impl = std::move(impl);
+    std::string args = b.params.canonical(all);
     b.label = args.empty() ? entry.name : entry.name + ":" + args;
     return b;
   }

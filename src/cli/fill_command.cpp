@@ -33,6 +33,7 @@ void add_fill(CLI::App& app, Action& action) {
       bool complete = true;
       for (const auto& r : result.reports) {
         std::cerr << r.column << ": filled " << r.filled << " of " << r.gaps << " gaps";
+        if (r.clipped) std::cerr << " (" << r.clipped << " moved into the bounds)";
         if (!r.failure.empty()) std::cerr << " (" << method.label << " failed: " << r.failure << ")";
         std::cerr << "\n";
         complete = complete && r.filled == r.gaps;

@@ -1,6 +1,7 @@
 // `gapmark methods`, `gapmark schemes`, `gapmark metrics`: what the registries
 // hold, as a readable table or as JSON. Read from the registries themselves,
 // so the listing never drifts from the code.
+#include <algorithm>
 #include <iostream>
 #include <nlohmann/json.hpp>
 
@@ -47,7 +48,7 @@ std::string needs_text(const Needs& n) {
 template <class Interface>
 nlohmann::json to_json(const Entry<Interface>& e) {
   nlohmann::json params = nlohmann::json::array();
-  for (const auto& p : e.params) {
+  for (const auto& p : Registry<Interface>::schema(e)) {
     nlohmann::json j{{"name", p.name}, {"type", type_name(p)}, {"default", p.default_value}, {"help", p.help}};
     if (p.type == ParamType::Integer || p.type == ParamType::Real) {
       j["min"] = p.min > -1e300 ? nlohmann::json(p.min) : nlohmann::json(nullptr);
@@ -62,21 +63,39 @@ nlohmann::json to_json(const Entry<Interface>& e) {
           {"params", params}};
 }
 
+void print_param(const ParamSpec& p, const char* empty_default) {
+  std::cout << "    " << p.name << " = " << (p.default_value.empty() ? empty_default : p.default_value) << "  ("
+            << type_name(p);
+  const std::string r = range_text(p);
+  if (!r.empty()) std::cout << "; " << r;
+  std::cout << ")  " << p.help << "\n";
+}
+
+/// The family's parameters that every entry takes whatever it needs (listed once, at the end).
+template <class Interface>
+std::vector<ParamSpec> universal_params() {
+  if constexpr (HasCommonParams<Interface>) return Interface::common_params(Needs{});
+  return {};
+}
+
 template <class Interface>
 void print_table(const Registry<Interface>& registry, bool with_needs) {
+  const auto universal = universal_params<Interface>();
+  const auto is_universal = [&](const ParamSpec& p) {
+    return std::any_of(universal.begin(), universal.end(), [&](const ParamSpec& u) { return u.name == p.name; });
+  };
   for (const auto* e : registry.list()) {
     std::cout << e->name;
     if (with_needs) std::cout << "  [needs: " << needs_text(e->needs) << "]";
     std::cout << "\n    " << e->summary << "\n";
-    for (const auto& p : e->params) {
-      std::cout << "    " << p.name << " = " << (p.default_value.empty() ? "(required)" : p.default_value)
-                << "  (" << type_name(p);
-      const std::string r = range_text(p);
-      if (!r.empty()) std::cout << "; " << r;
-      std::cout << ")  " << p.help << "\n";
-    }
+    for (const auto& p : Registry<Interface>::schema(*e))
+      if (!is_universal(p)) print_param(p, "(required)");
     std::cout << "\n";
   }
+  if (universal.empty()) return;
+  std::cout << "Every " << Interface::family << " also takes:\n";
+  for (const auto& p : universal) print_param(p, "(none)");
+  std::cout << "\n";
 }
 
 template <class Interface>

@@ -1,5 +1,6 @@
 #include "gapmark/params.hpp"
 
+#include <algorithm>
 #include <cmath>
 #include <nlohmann/json.hpp>
 
@@ -84,6 +85,11 @@ CallSpec CallSpec::parse(std::string_view text, const std::string& where) {
     std::string_view item = trim(rest.substr(0, comma));
     rest = comma == std::string_view::npos ? std::string_view{} : rest.substr(comma + 1);
     auto eq = item.find('=');
+    // A piece without '=' after key=value continues a list value: "bounds=0,200".
+    if (eq == std::string_view::npos && !call.args.empty()) {
+      call.args.back().second += "," + std::string(item);
+      continue;
+    }
     if (eq == std::string_view::npos)
       throw InputError(where, "expected key=value in '" + std::string(text) + "', found '" +
                                   std::string(item) + "'");
@@ -94,6 +100,7 @@ CallSpec CallSpec::parse(std::string_view text, const std::string& where) {
       if (k == key) throw InputError(where, "parameter '" + key + "' given twice");
     call.args.emplace_back(key, value);
   }
+  if (text.back() == ',' && !call.args.empty()) call.args.back().second += ",";  // "bounds=0," : open above
   return call;
 }
 
@@ -114,7 +121,11 @@ CallSpec CallSpec::from_json(const nlohmann::json& value, const std::string& whe
     else if (v.is_boolean()) text = v.get<bool>() ? "true" : "false";
     else if (v.is_number_integer()) text = std::to_string(v.get<std::int64_t>());
     else if (v.is_number()) text = format_double(v.get<double>());
-    else throw InputError(where + "/" + key, "expected a string, number or boolean");
+    else if (v.is_array() && !v.empty() && std::all_of(v.begin(), v.end(), [](const auto& x) { return x.is_number(); }))
+      for (const auto& x : v)  // a list of numbers: "bounds": [0, 200]
+        text += (text.empty() ? "" : ",") + (x.is_number_integer() ? std::to_string(x.template get<std::int64_t>())
+                                                                     : format_double(x.template get<double>()));
+    else throw InputError(where + "/" + key, "expected a string, number, boolean or list of numbers");
     for (const auto& [k, old] : call.args)
       if (k == key) throw InputError(where + "/" + key, "parameter given twice");
     call.args.emplace_back(key, text);

@@ -94,6 +94,7 @@ std::string task_line(std::size_t task, const std::vector<TrialRecord>& trials,
     json rec = {{"status", r.status}, {"masked", r.masked}, {"unfilled", r.unfilled},
                 {"seconds", number_or_null(r.seconds)}, {"metrics", std::move(metrics)}};
     if (!r.reason.empty()) rec["reason"] = r.reason;
+    if (r.clipped) rec["clipped"] = r.clipped;
     t.push_back(std::move(rec));
   }
   json w = json::array();
@@ -204,6 +205,7 @@ StoredTask parse_task(const json& j, const CheckpointGrid& grid, const std::stri
       if (auto it = t.find("reason"); it != t.end()) r.reason = it->get<std::string>();
       r.masked = t.at("masked").get<std::size_t>();
       r.unfilled = t.at("unfilled").get<std::size_t>();
+      if (auto it = t.find("clipped"); it != t.end()) r.clipped = it->get<std::size_t>();
       const auto& seconds = t.at("seconds");
       r.seconds = seconds.is_number() ? seconds.get<double>() : std::nan("");
       const auto& metrics = t.at("metrics");

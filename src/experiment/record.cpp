@@ -29,16 +29,18 @@ nlohmann::json trial_to_json(const TrialRecord& t, const std::vector<MetricColum
     const double v = i < t.metrics.size() ? t.metrics[i] : std::nan("");
     metrics[columns[i].name] = std::isfinite(v) ? nlohmann::json(v) : nlohmann::json(nullptr);
   }
-  return {{"series", t.series},
-          {"scheme", t.scheme},
-          {"rate", t.rate},
-          {"replicate", t.replicate},
-          {"method", t.method},
-          {"status", t.status},
-          {"reason", t.reason.empty() ? nlohmann::json(nullptr) : nlohmann::json(t.reason)},
-          {"masked", t.masked},
-          {"unfilled", t.unfilled},
-          {"metrics", metrics}};
+  nlohmann::json out = {{"series", t.series},
+                        {"scheme", t.scheme},
+                        {"rate", t.rate},
+                        {"replicate", t.replicate},
+                        {"method", t.method},
+                        {"status", t.status},
+                        {"reason", t.reason.empty() ? nlohmann::json(nullptr) : nlohmann::json(t.reason)},
+                        {"masked", t.masked},
+                        {"unfilled", t.unfilled},
+                        {"metrics", metrics}};
+  if (t.clipped) out["clipped"] = t.clipped;  // only methods with bounds=LO,HI clip
+  return out;
 }
 
 TrialRecord trial_from_json(const nlohmann::json& j, const std::vector<MetricColumn>& columns,
@@ -54,6 +56,7 @@ TrialRecord trial_from_json(const nlohmann::json& j, const std::vector<MetricCol
     if (!j.at("reason").is_null()) t.reason = j.at("reason").get<std::string>();
     t.masked = j.at("masked").get<std::size_t>();
     t.unfilled = j.at("unfilled").get<std::size_t>();
+    if (j.contains("clipped")) t.clipped = j.at("clipped").get<std::size_t>();
     const auto& m = j.at("metrics");
     t.metrics.resize(columns.size(), std::nan(""));
     for (std::size_t i = 0; i < columns.size(); ++i) {

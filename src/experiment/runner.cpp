@@ -153,7 +153,7 @@ std::vector<TrialRecord> run_task(const ExperimentSpec& spec, const LoadedData& 
     FillResult result;
     const auto start = std::chrono::steady_clock::now();
     try {
-      check_needs(method.entry->needs, fill_request);
+      check_needs(method, fill_request);
       result = method.impl->fill(fill_request);
       if (result.values.size() != holed.size())
         throw MethodFailure("returned " + std::to_string(result.values.size()) + " values for " +
@@ -180,6 +180,11 @@ std::vector<TrialRecord> run_task(const ExperimentSpec& spec, const LoadedData& 
       add_warning(warnings, {"observed-changed", method.label,
                              "the method changed observed values; they were restored before scoring",
                              "fix the method so that it returns observed values unchanged"});
+    rec.clipped = result.clipped;
+    if (result.clipped)
+      add_warning(warnings, {"fills-clipped", method.label,
+                             "fills outside the method's bounds were moved to the bound (each trial's \"clipped\" counts them)",
+                             "many clipped points mean the method leaves the physical range: try transform=log or another method"});
     rec.status = rec.unfilled == 0 ? "ok" : rec.unfilled == masked ? "failed" : "partial";
     if (rec.unfilled) rec.reason = std::to_string(rec.unfilled) + " masked points left unfilled";
 

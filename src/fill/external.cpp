@@ -129,6 +129,7 @@ const Registration<FillMethod> registration{{
                {.name = "input", .type = ParamType::Choice, .default_value = "stdin", .choices = {"stdin", "file"},
                 .help = "where the series goes: standard input, or a temporary file named by the last argument "
                         "(and GAPMARK_INPUT)"}},
+    .needs = {.uses_period = true},  // GAPMARK_PERIOD
     .make = [](const ParamValues& p) {
       return std::make_unique<External>(split_command(p.text("command"), "external: command"), p.real("timeout"),
                                         p.text("input") == "file");

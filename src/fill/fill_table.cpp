@@ -27,8 +27,9 @@ FillTableOutput fill_table(WideTable& table, const std::vector<std::size_t>& col
     for (double v : original[c]) report.gaps += std::isnan(v) ? 1 : 0;
     if (report.gaps > 0) {
       try {
-        check_needs(method.entry->needs, request);
+        check_needs(method, request);
         FillResult result = method.impl->fill(request);
+        report.clipped = result.clipped;
         if (result.values.size() != original[c].size())
           throw MethodFailure("returned the wrong number of values");
         for (std::size_t i = 0; i < result.values.size(); ++i) {

@@ -159,7 +159,7 @@ const Registration<FillMethod> registration{{
                 .choices = {"signal", "value"},
                 .help = "variance returned at filled points: of the missing value itself (signal plus irregular: "
                         "what an interval for the true value needs), or of the smoothed signal only"}},
-    .needs = {.period = false, .siblings = false, .min_observed = 3},
+    .needs = {.period = false, .uses_period = true, .siblings = false, .min_observed = 3},
     .make = [](const ParamValues& p) {
       if (p.integer("harmonics") != 0 && p.text("model") != "seasonal")
         throw InputError("kalman: harmonics", "applies to model=seasonal only (model=" + p.text("model") + ")");

@@ -24,6 +24,7 @@ struct TrialRecord {
   std::string reason;     ///< why, when not ok
   std::size_t masked = 0;    ///< points hidden and scored
   std::size_t unfilled = 0;  ///< hidden points the method left empty
+  std::size_t clipped = 0;   ///< filled points moved into the method's bounds=LO,HI
   std::vector<double> metrics;  ///< one per column; NaN = not applicable
   double seconds = 0;           ///< wall-clock fill time: kept out of `trials` in results.json
 

@@ -13,6 +13,7 @@ struct FillTableReport {
   std::string column;
   std::size_t gaps = 0;       ///< missing cells before filling
   std::size_t filled = 0;     ///< of those, filled
+  std::size_t clipped = 0;    ///< of those, moved into the method's bounds=LO,HI
   std::string failure;        ///< the method's reason when it failed on the column
 };
 

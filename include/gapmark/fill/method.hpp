@@ -8,6 +8,7 @@
 // with the nearest observed value (`edges=nearest`), or left missing
 // (`edges=leave`), in which case the scorer counts those points as unfilled.
 #include <cstddef>
+#include <memory>
 #include <span>
 #include <string>
 #include <vector>
@@ -32,6 +33,7 @@ struct FillRequest {
 struct FillResult {
   std::vector<double> values;    ///< same length as the request; NaN = left unfilled
   std::vector<double> variance;  ///< empty, or one per point (predictive variance)
+  std::size_t clipped = 0;       ///< filled points moved into `bounds=LO,HI`
 };
 
 class FillMethod {
@@ -40,6 +42,14 @@ public:
   virtual ~FillMethod() = default;
   /// Fills the gaps. Throws MethodFailure with a reason when it cannot.
   virtual FillResult fill(const FillRequest& request) const = 0;
+
+  /// The parameters every method takes (method_common_params.cpp): `period`
+  /// (methods that use one), `bounds` and `transform`.
+  static std::vector<ParamSpec> common_params(const Needs& needs);
+  /// Wraps a method in the common parameters that were given; returns it
+  /// unchanged when none was.
+  static std::unique_ptr<FillMethod> wrap(std::unique_ptr<FillMethod> method, const ParamValues& values,
+                                          const Needs& needs);
 };
 
 using MethodRegistry = Registry<FillMethod>;
@@ -47,6 +57,10 @@ using MethodRegistry = Registry<FillMethod>;
 /// Checks the method's needs against a request; throws MethodFailure naming
 /// the unmet need ("needs a seasonal period; set \"period\" in the spec").
 void check_needs(const Needs& needs, const FillRequest& request);
+/// The period a bound method works with: its own `period=N` when given, else the data's.
+std::size_t method_period(const Bound<FillMethod>& method, std::size_t data_period);
+/// The same for a bound method: its own `period=N`, when given, replaces the data's.
+void check_needs(const Bound<FillMethod>& method, const FillRequest& request);
 
 /// The shared `edges` parameter (nearest | leave).
 ParamSpec edges_param();
