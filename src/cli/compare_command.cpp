@@ -1,5 +1,6 @@
 // `gapmark compare`: is the current run worse than a baseline? Prints a
-// table of what changed; exit status 1 when a cell regressed, 0 otherwise.
+// summary and the worst cells; exit status 1 when a cell regressed, 0 when
+// none did, 2 when the files cannot be compared (no cell in common).
 #include <iostream>
 
 #include "commands.hpp"
@@ -12,6 +13,7 @@ namespace gapmark::cli {
 void add_compare(CLI::App& app, Action& action) {
   struct Options {
     std::string baseline, current, tolerance, tolerance_file, json;
+    bool all = false;
   };
   auto o = std::make_shared<Options>();
   auto* cmd = app.add_subcommand(
@@ -19,10 +21,12 @@ void add_compare(CLI::App& app, Action& action) {
   cmd->add_option("BASELINE", o->baseline, "The reference results.json")->required();
   cmd->add_option("CURRENT", o->current, "The results.json to check")->required();
   cmd->add_option("--tolerance", o->tolerance,
-                  "Allowed worsening per metric: \"rmse=5%,mae=0.01,*=1%\" (% = relative; default 1e-6 relative)");
+                  "Metrics to compare and their allowed worsening: \"rmse=5%,mae=0.01,*=1%\" (% = relative; * = every "
+                  "metric). Without it only the ranking metric is compared, with a tolerance of 1e-6 relative");
   cmd->add_option("--tolerance-file", o->tolerance_file,
                   "JSON {\"rmse\": {\"relative\": 0.05}, \"mae\": {\"absolute\": 0.01}}; --tolerance wins over it");
   cmd->add_option("--json", o->json, "Also write the comparison as JSON to this file");
+  cmd->add_flag("--all", o->all, "Print every changed metric of every cell (default: a summary and the worst 20 cells)");
   cmd->callback([&action, o] {
     action = [o] {
       Tolerances tolerances;
@@ -31,7 +35,7 @@ void add_compare(CLI::App& app, Action& action) {
       const ResultSet baseline = read_results(o->baseline);
       const ResultSet current = read_results(o->current);
       const Comparison c = compare_results(baseline, current, tolerances, o->baseline, o->current);
-      std::cout << comparison_text(c);
+      std::cout << comparison_text(c, o->all ? 0 : 20);
       if (!o->json.empty()) write_file_atomically(o->json, comparison_to_json(c).dump(1) + "\n");
       return c.regressed.empty() ? kOk : kRegression;
     };

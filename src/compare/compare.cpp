@@ -1,5 +1,6 @@
 #include "gapmark/compare/compare.hpp"
 
+#include <algorithm>
 #include <cmath>
 #include <map>
 #include <set>
@@ -7,6 +8,8 @@
 
 #include "gapmark/error.hpp"
 #include "gapmark/number_format.hpp"
+#include "gapmark/report/table_text.hpp"
+#include "gapmark/stats/multiple_testing.hpp"
 #include "gapmark/stats/wilcoxon.hpp"
 
 namespace gapmark {
@@ -65,6 +68,32 @@ double mean_of(const Cell& cell, std::size_t column) {
 
 bool same_number(double a, double b) { return (std::isnan(a) && std::isnan(b)) || a == b; }
 
+/// "a, b, c" of the distinct values of one field of the trials, in first-seen order (at most 6).
+std::string distinct(const ResultSet& r, std::string TrialRecord::*field) {
+  std::vector<std::string> seen;
+  for (const auto& t : r.trials)
+    if (std::find(seen.begin(), seen.end(), t.*field) == seen.end()) seen.push_back(t.*field);
+  std::string out;
+  for (std::size_t i = 0; i < seen.size() && i < 6; ++i) out += (i ? ", " : "") + seen[i];
+  if (seen.size() > 6) out += " and " + std::to_string(seen.size() - 6) + " more";
+  return out.empty() ? "(none)" : out;
+}
+
+/// Why two files share no cell: what differs between them.
+std::string no_shared_cell(const ResultSet& b, const ResultSet& c, const std::string& baseline_source) {
+  std::string out = "no cell in common with " + baseline_source + ", nothing to compare";
+  const auto hash_b = b.context.value("spec_sha256", std::string()), hash_c = c.context.value("spec_sha256", std::string());
+  if (hash_b != hash_c)
+    out += "; spec SHA-256 " + (hash_b.empty() ? std::string("(none)") : hash_b.substr(0, 12)) + " vs " +
+           (hash_c.empty() ? std::string("(none)") : hash_c.substr(0, 12));
+  for (const auto& [what, field] : {std::pair{"series", &TrialRecord::series}, std::pair{"schemes", &TrialRecord::scheme},
+                                    std::pair{"methods", &TrialRecord::method}}) {
+    const std::string x = distinct(b, field), y = distinct(c, field);
+    if (x != y) out += std::string("; ") + what + " " + x + " vs " + y;
+  }
+  return out + " (compare two runs of the same spec)";
+}
+
 }  // namespace
 
 std::string to_string(Verdict v) {
@@ -89,17 +118,16 @@ Comparison compare_results(const ResultSet& baseline, const ResultSet& current, 
   out.current_source = current_source;
   out.alpha = current.alpha;
   out.tolerances = tolerances;
-  // Fewest pairs whose smallest attainable two-sided exact p, 2 / 2^n, is below alpha.
-  out.min_pairs = 1;
-  while (std::ldexp(2.0, -static_cast<int>(out.min_pairs)) >= out.alpha && out.min_pairs < 64) ++out.min_pairs;
 
   if (baseline.alpha != current.alpha)
     out.notes.push_back("alpha differs (baseline " + format_double(baseline.alpha) + ", current " +
                         format_double(current.alpha) + "); the current one is used");
   const auto seed_b = baseline.context.value("seed", nlohmann::json()), seed_c = current.context.value("seed", nlohmann::json());
-  if (seed_b != seed_c)
+  out.same_seed = seed_b == seed_c;
+  if (!out.same_seed)
     out.notes.push_back("the seeds differ (baseline " + seed_b.dump() + ", current " + seed_c.dump() +
-                        "): replicates do not share masks, so pairing by replicate is not meaningful");
+                        "): replicates do not share masks, so pairs are independent draws (the test stays valid, "
+                        "with less power) and too few pairs decide nothing");
   if (baseline.context.value("spec_sha256", std::string()) != current.context.value("spec_sha256", std::string()))
     out.notes.push_back("the spec files differ (SHA-256); cells are still matched by name");
   const auto inputs_b = baseline.context.value("inputs", nlohmann::json()), inputs_c = current.context.value("inputs", nlohmann::json());
@@ -111,8 +139,12 @@ Comparison compare_results(const ResultSet& baseline, const ResultSet& current, 
   for (const auto& c : current.columns) current_names.insert(c.name);
   for (std::size_t b = 0; b < baseline.columns.size(); ++b) {
     const auto& name = baseline.columns[b].name;
-    if (current_names.count(name)) shared.emplace_back(b, current.column_index(name));
-    else out.metrics_only_in_baseline.push_back(name);
+    if (current_names.count(name)) {
+      shared.emplace_back(b, current.column_index(name));
+      (tolerances.compares(name, current.rank_by) ? out.compared_metrics : out.uncompared_metrics).push_back(name);
+    } else {
+      out.metrics_only_in_baseline.push_back(name);
+    }
   }
   for (const auto& c : current.columns) {
     bool found = false;
@@ -120,6 +152,8 @@ Comparison compare_results(const ResultSet& baseline, const ResultSet& current, 
     if (!found) out.metrics_only_in_current.push_back(c.name);
   }
 
+  std::vector<std::pair<std::vector<double>, std::vector<double>>> pairs;  // per metric change, in order
+  std::size_t candidates = 0;
   const Indexed base = index_trials(baseline, baseline_source);
   const Indexed cur = index_trials(current, current_source);
   for (const auto& key : cur.order)
@@ -143,9 +177,14 @@ Comparison compare_results(const ResultSet& baseline, const ResultSet& current, 
     cell.baseline_failures = b.failures;
     cell.current_failures = c.failures;
     if (cell.current_failures > cell.baseline_failures) {
-      cell.regressed = true;
-      cell.reasons.push_back("failed trials " + std::to_string(cell.baseline_failures) + " -> " +
-                             std::to_string(cell.current_failures));
+      const std::string reason =
+          "failed trials " + std::to_string(cell.baseline_failures) + " -> " + std::to_string(cell.current_failures);
+      if (out.same_seed) {
+        cell.regressed = true;
+        cell.reasons.push_back(reason);
+      } else {
+        cell.more_failures_other_seed = true;
+      }
     }
     if (cell.baseline_trials != cell.current_trials || cell.baseline_failures != cell.current_failures)
       identical = false;
@@ -173,6 +212,7 @@ Comparison compare_results(const ResultSet& baseline, const ResultSet& current, 
       m.pairs = x.size();
       const bool same = same_number(m.baseline_mean, m.current_mean);
       if (!same) identical = false;
+      if (!tolerances.compares(m.metric, current.rank_by)) continue;  // listed as not compared
       if (same) {
         m.verdict = Verdict::Same;
       } else if (std::isnan(m.baseline_mean) || std::isnan(m.current_mean)) {
@@ -182,23 +222,55 @@ Comparison compare_results(const ResultSet& baseline, const ResultSet& current, 
       } else {
         m.worsening = badness(m.current_mean, column.direction) - badness(m.baseline_mean, column.direction);
         m.allowed = tolerances.of(m.metric).allowed(badness(m.baseline_mean, column.direction));
-        m.tested = m.pairs >= out.min_pairs;
-        if (m.tested) m.p = stats::wilcoxon_signed_rank(x, y).p;
+        ++candidates;
         if (m.worsening < 0) m.verdict = Verdict::Better;
         else if (m.worsening == 0) m.verdict = Verdict::Same;
         else if (m.worsening <= m.allowed) m.verdict = Verdict::WorseWithinTolerance;
-        else if (m.tested && !(m.p < out.alpha)) m.verdict = Verdict::WorseNotSignificant;
-        else m.verdict = Verdict::Regressed;
-      }
-      if (m.verdict == Verdict::Regressed) {
-        cell.regressed = true;
-        cell.reasons.push_back(m.metric + " worse by " + format_double(m.worsening) +
-                               (m.tested ? ", p = " + format_double(m.p) : std::string(", too few pairs to test")));
+        else m.verdict = Verdict::Regressed;  // until the corrected test says otherwise (below)
       }
       cell.metrics.push_back(m);
+      pairs.emplace_back(std::move(x), std::move(y));
+    }
+    out.cells.push_back(std::move(cell));
+  }
+  if (out.cells.empty()) throw InputError(current_source, no_shared_cell(baseline, current, baseline_source));
+
+  // Fewest pairs whose smallest attainable two-sided exact p, 2 / 2^n, can
+  // still reach alpha after Holm's correction over the candidate tests (the
+  // compared metrics that changed with a direction): candidates * 2 / 2^n < alpha.
+  const double family = static_cast<double>(std::max<std::size_t>(candidates, 1));
+  out.min_pairs = 1;
+  while (family * std::ldexp(2.0, -static_cast<int>(out.min_pairs)) >= out.alpha && out.min_pairs < 64) ++out.min_pairs;
+
+  // The tests with power, then Holm over every test made (all cells and metrics).
+  std::vector<double> ps;
+  std::size_t k = 0;
+  for (auto& cell : out.cells)
+    for (auto& m : cell.metrics) {
+      const auto& [x, y] = pairs[k++];
+      const bool directional = m.verdict == Verdict::Better || m.verdict == Verdict::WorseWithinTolerance ||
+                               m.verdict == Verdict::Regressed;
+      m.tested = directional && m.pairs >= out.min_pairs;
+      if (m.tested) m.p = stats::wilcoxon_signed_rank(x, y).p;
+      ps.push_back(m.tested ? m.p : kNaN);
+    }
+  const std::vector<double> adjusted = stats::holm_adjust(ps);
+  k = 0;
+  for (auto& cell : out.cells) {
+    for (auto& m : cell.metrics) {
+      m.p_holm = adjusted[k++];
+      if (m.tested) ++out.tests;
+      if (m.verdict != Verdict::Regressed) continue;
+      if (m.tested ? !(m.p_holm < out.alpha) : !out.same_seed) {
+        m.verdict = Verdict::WorseNotSignificant;
+        continue;
+      }
+      cell.regressed = true;
+      cell.reasons.push_back(m.metric + " worse by " + short_number(m.worsening) +
+                             (m.tested ? " (Holm-adjusted p = " + short_number(m.p_holm) + ")"
+                                       : std::string(" (too few pairs to test; same masks)")));
     }
     if (cell.regressed) out.regressed.push_back(cell.name());
-    out.cells.push_back(std::move(cell));
   }
   out.no_change = identical;
   return out;

@@ -33,7 +33,7 @@ const Tolerance& Tolerances::of(const std::string& metric) const {
 }
 
 nlohmann::json Tolerances::to_json() const {
-  nlohmann::json out = {{"*", {{"absolute", fallback.absolute}, {"relative", fallback.relative}}}};
+  nlohmann::json out = {{"*", {{"absolute", fallback.absolute}, {"relative", fallback.relative}, {"all", all}}}};
   for (const auto& [name, t] : per_metric) out[name] = {{"absolute", t.absolute}, {"relative", t.relative}};
   return out;
 }
@@ -41,7 +41,7 @@ nlohmann::json Tolerances::to_json() const {
 namespace {
 
 void set(Tolerances& t, const std::string& metric, const Tolerance& value) {
-  if (metric == "*") t.fallback = value;
+  if (metric == "*") t.fallback = value, t.all = true;
   else t.per_metric[metric] = value;
 }
 

@@ -1,7 +1,8 @@
 #!/bin/bash
 # The committed regression baseline: rerunning its spec must compare as
-# "no change" (exit 0); results made worse must be named (exit 1); bad input
-# exits 2.
+# "no change" (exit 0); results made worse must be named (exit 1), a summary
+# first; another seed alone is no regression; unrelated files and bad input
+# exit 2.
 # Usage: bash compare_baseline.sh GAPMARK_BINARY SOURCE_DIR WORK_DIR
 set -u
 gapmark=$1 src=$2 work=$3
@@ -23,7 +24,32 @@ sed -E 's/"rmse": ([0-9])/"rmse": 9\1/' "$work/run/results.json" > "$work/worse.
 status=$?
 [ $status -eq 1 ] || { cat "$work/worse.txt"; fail "expected exit 1 for worse results, got $status"; }
 grep -q '^REGRESSION in 36 of 36 cells' "$work/worse.txt" || { cat "$work/worse.txt"; fail "expected 36 regressed cells"; }
-grep -q '^  linear/chamber_humidity_pct/random@0.1: rmse worse by' "$work/worse.txt" || fail "regressed cell not named"
+# The summary comes first, then at most 20 cells; --all names every one.
+[ "$(grep -n '^REGRESSION' "$work/worse.txt" | cut -d: -f1)" -lt "$(grep -n '^Worst 20 cells' "$work/worse.txt" | cut -d: -f1)" ] ||
+  fail "the summary must come before the worst cells"
+grep -q 'more changed cells not shown; --all prints every change' "$work/worse.txt" || fail "the table must be cut at 20 cells"
+grep -q 'Holm-corrected' "$work/worse.txt" || fail "the correction must be said"
+"$gapmark" compare "$baseline" "$work/worse.json" --all > "$work/worse_all.txt"
+grep -q '^  linear/chamber_humidity_pct/random@0.1: rmse worse by' "$work/worse_all.txt" || fail "regressed cell not named"
+[ "$(wc -l < "$work/worse_all.txt")" -gt "$(wc -l < "$work/worse.txt")" ] || fail "--all must print more"
+
+# Another seed alone is no regression, even with every metric watched.
+sed 's/"seed": 31415/"seed": 27182/' "$src/experiments/regression/regression.json" > "$work/reseeded.json"
+sed -i "s|\"file\": \"|\"file\": \"$src/experiments/regression/|" "$work/reseeded.json"
+"$gapmark" run "$work/reseeded.json" --out "$work/reseeded" --quiet || fail "gapmark run (another seed)"
+for tolerance in "" "*=0%"; do
+  "$gapmark" compare "$baseline" "$work/reseeded/results.json" ${tolerance:+--tolerance "$tolerance"} > "$work/seed.txt"
+  status=$?
+  [ $status -eq 0 ] || { cat "$work/seed.txt"; fail "another seed (tolerance '$tolerance') must exit 0, got $status"; }
+  grep -q '^no regression' "$work/seed.txt" || fail "another seed must say no regression"
+  grep -q 'the seeds differ' "$work/seed.txt" || fail "another seed must be noted"
+done
+
+# Files with no cell in common are refused, saying what differs.
+sed -E 's/"method": "/"method": "other-/' "$work/run/results.json" > "$work/unrelated.json"
+"$gapmark" compare "$baseline" "$work/unrelated.json" > /dev/null 2> "$work/err.txt"
+[ $? -eq 2 ] || fail "unrelated files must exit 2"
+grep -q 'no cell in common with .*methods ' "$work/err.txt" || { cat "$work/err.txt"; fail "the error must say what differs"; }
 
 # The other way round it is an improvement.
 "$gapmark" compare "$work/worse.json" "$baseline" > /dev/null || fail "an improvement must exit 0"

@@ -69,6 +69,7 @@ nlohmann::json load_cases() {
 ResultSet one_cell(const std::vector<double>& values, Direction direction, bool reversed) {
   ResultSet r;
   r.columns = {{"m", "value", direction, "a metric"}};
+  r.rank_by = "m";  // the ranking metric is compared without a tolerance given
   r.context = {{"seed", 1}};
   for (std::size_t i = 0; i < values.size(); ++i) {
     const std::size_t k = reversed ? values.size() - 1 - i : i;
@@ -114,6 +115,35 @@ TEST_CASE("a method made worse is named as a regression; the others are unchange
   CHECK(text.find("REGRESSION in 6 of") != std::string::npos);
   CHECK(text.find("test-biased-linear/chamber_humidity_pct/random@0.1") != std::string::npos);
 
+  SUBCASE("the summary comes first, then the worst cells, with Holm's correction said") {
+    const std::size_t summary = text.find("REGRESSION in 6 of");
+    const std::size_t worst = text.find("Worst ");
+    REQUIRE(worst != std::string::npos);
+    CHECK(summary < worst);
+    CHECK(text.find("Holm-corrected over the 6 tests made") != std::string::npos);
+    CHECK(text.find("regressed, 0 worse beyond tolerance but not significant") != std::string::npos);
+    // One row per cell by default: the table holds at most the 6 changed cells.
+    const std::string limited = comparison_text(c, 2);
+    CHECK(limited.find("Worst 2 cells") != std::string::npos);
+    CHECK(limited.find("(4 more changed cells not shown; --all prints every change)") != std::string::npos);
+    for (const auto& cell : c.cells)
+      for (const auto& m : cell.metrics)
+        if (m.tested) CHECK(m.p_holm == doctest::Approx(6 * 2.0 / 256.0));
+  }
+  SUBCASE("another seed alone is no regression, even with every metric watched") {
+    ExperimentSpec other = spec;
+    nlohmann::json j = spec.json;
+    j["seed"] = 27182;
+    other = parse_spec(j.dump(1), "regression.json (other seed)", spec.base_dir);
+    const ResultSet reseeded = run_with_bias(other, 0.0);
+    for (const char* tolerance : {"", "*=0%"}) {
+      CAPTURE(tolerance);
+      const Comparison seed = compare_results(baseline, reseeded, parse_tolerance_text(tolerance, "t"));
+      CHECK_FALSE(seed.same_seed);
+      CHECK(seed.regressed.empty());
+      CHECK_FALSE(seed.no_change);
+    }
+  }
   SUBCASE("the same change the other way is an improvement, not a regression") {
     const Comparison back = compare_results(degraded, baseline);
     CHECK(back.regressed.empty());
@@ -140,14 +170,49 @@ TEST_CASE("a method made worse is named as a regression; the others are unchange
 
 TEST_CASE("cells and metrics present in one file only are listed, not dropped") {
   const std::vector<double> v{1, 2, 3, 4, 5, 6};
-  ResultSet a = one_cell(v, Direction::Lower, false);
-  ResultSet b = one_cell(v, Direction::Lower, false);
-  for (auto& t : b.trials) t.method = "pchip";
+  ResultSet a = one_cell(v, Direction::Lower, false);  // linear (shared) and mean
+  ResultSet b = one_cell(v, Direction::Lower, false);  // linear (shared) and pchip
+  for (std::size_t i = 0; i < v.size(); ++i) {
+    a.trials.push_back(a.trials[i]);
+    a.trials.back().method = "mean";
+    b.trials.push_back(b.trials[i]);
+    b.trials.back().method = "pchip";
+  }
   const Comparison c = compare_results(a, b);
   CHECK_FALSE(c.no_change);
-  CHECK(c.only_in_baseline == std::vector<std::string>{"linear/s/random@0.1"});
+  CHECK(c.cells.size() == 1);
+  CHECK(c.only_in_baseline == std::vector<std::string>{"mean/s/random@0.1"});
   CHECK(c.only_in_current == std::vector<std::string>{"pchip/s/random@0.1"});
   CHECK(c.regressed.empty());
+}
+
+TEST_CASE("files that share no cell are refused, saying what differs") {
+  const std::vector<double> v{1, 2, 3, 4, 5, 6};
+  ResultSet a = one_cell(v, Direction::Lower, false);
+  ResultSet b = one_cell(v, Direction::Lower, false);
+  a.context["spec_sha256"] = "aaaaaaaaaaaaaaaa";
+  b.context["spec_sha256"] = "bbbbbbbbbbbbbbbb";
+  for (auto& t : b.trials) t.method = "pchip", t.series = "other";
+  CHECK_THROWS_WITH_AS(compare_results(a, b, {}, "base.json", "cur.json"),
+                       "cur.json: no cell in common with base.json, nothing to compare; spec SHA-256 aaaaaaaaaaaa vs "
+                       "bbbbbbbbbbbb; series s vs other; methods linear vs pchip (compare two runs of the same spec)",
+                       InputError);
+}
+
+TEST_CASE("only the ranking metric and the metrics given a tolerance are compared") {
+  ResultSet a = one_cell({1, 2, 3, 4, 5, 6, 7}, Direction::Lower, false);
+  a.columns.push_back({"extra", "value", Direction::Lower, "another metric"});
+  for (auto& t : a.trials) t.metrics.push_back(1.0);
+  ResultSet b = a;
+  for (auto& t : b.trials) t.metrics[1] = 5.0;  // much worse, but nobody watches it
+  const Comparison quiet = compare_results(a, b);
+  CHECK(quiet.regressed.empty());
+  CHECK(quiet.compared_metrics == std::vector<std::string>{"m"});
+  CHECK(quiet.uncompared_metrics == std::vector<std::string>{"extra"});
+  CHECK(comparison_text(quiet).find("not compared (no tolerance given") != std::string::npos);
+  const Comparison watched = compare_results(a, b, parse_tolerance_text("extra=10%", "t"));
+  CHECK(watched.regressed.size() == 1);
+  CHECK(compare_results(a, b, parse_tolerance_text("*=10%", "t")).regressed.size() == 1);
 }
 
 TEST_CASE("more failed trials is a regression") {

@@ -7,7 +7,9 @@
 // absolute, "*" every metric not named). In a file: JSON
 //   {"rmse": {"relative": 0.05}, "mae": {"absolute": 0.01}, "*": {"relative": 0.01}}
 //
-// Default for every metric: relative 1e-6 with an absolute floor of 1e-12.
+// Compared are the metrics named, every metric when "*" is given, and the
+// ranking metric always. Default tolerance: relative 1e-6 with an absolute
+// floor of 1e-12.
 // Runs are deterministic, so the same code and inputs give the same bytes;
 // the default only absorbs floating-point noise from another compiler or
 // CPU, and any real worsening beyond it counts (subject to the paired test).
@@ -29,7 +31,12 @@ struct Tolerance {
 
 struct Tolerances {
   Tolerance fallback{1e-12, 1e-6};
+  bool all = false;  ///< "*" was given: every metric is compared (with `fallback` unless named)
   std::map<std::string, Tolerance> per_metric;
+  /// Compared: named, or "*" given, or the ranking metric.
+  bool compares(const std::string& metric, const std::string& rank_by) const {
+    return all || metric == rank_by || per_metric.count(metric) != 0;
+  }
   const Tolerance& of(const std::string& metric) const;
   nlohmann::json to_json() const;
 };
