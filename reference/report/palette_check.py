@@ -9,7 +9,13 @@ computes the colour difference in CAM02-UCS (Luo, Cui & Li 2006) for normal
 vision and for simulated protanomaly, deuteranomaly and tritanomaly at
 severity 100 (the Machado, Oliveira & Fernandes 2009 model, as implemented by
 colorspacious), and the difference of each colour from the white chart
-background. Writes palette.json beside this script with the library versions.
+background, and for greyscale the CAM02-UCS lightness J' of each colour and
+the smallest step between two of them (a greyscale print keeps lightness
+only). Writes palette.json beside this script with the library versions.
+Passes (exit 0) when every pair differs by at least 15 under each vision,
+every colour by at least 25 from white, and lightness steps are at least 6:
+thresholds of our own (common practice puts a just-noticeable difference
+near 1 and "clearly different" above 10; no source).
 The report also tells methods apart by dash pattern and marker shape, so
 colour is never the only cue; this check only measures the colour part.
 """
@@ -22,7 +28,7 @@ import colorspacious
 import numpy as np
 
 HERE = os.path.dirname(os.path.abspath(__file__))
-PALETTE = ["#2f5f8f", "#e0b040", "#a0522d", "#7fb8a4", "#b07aa1", "#3e8c76"]
+PALETTE = ["#274571", "#952e17", "#8553d7", "#cd5f76", "#5fa7d8", "#c8b514"]
 
 
 def rgb(hex_colour):
@@ -50,13 +56,24 @@ def main():
         background = [round(float(colorspacious.deltaE(s, [255, 255, 255], input_space="sRGB255")), 3) for s in sim]
         result["vision"][kind] = {"min_pair_delta_e": min(pairs.values()), "pairs": pairs,
                                   "min_background_delta_e": min(background)}
+    lightness = [float(cs_j) for cs_j in colorspacious.cspace_convert(np.array([rgb(c) for c in PALETTE]) / 255.0,
+                                                                   "sRGB1", "CAM02-UCS")[:, 0]]
+    steps = np.diff(np.sort(lightness))
+    result["greyscale"] = {"lightness_j": {c: round(j, 3) for c, j in zip(PALETTE, lightness)},
+                           "min_lightness_step": round(float(steps.min()), 3)}
+    passed = (all(v["min_pair_delta_e"] >= 15 and v["min_background_delta_e"] >= 25 for v in result["vision"].values())
+              and result["greyscale"]["min_lightness_step"] >= 6)
+    result["passed"] = bool(passed)
     with open(os.path.join(HERE, "palette.json"), "w") as f:
         json.dump(result, f, indent=1)
         f.write("\n")
     for kind, v in result["vision"].items():
         worst = min(v["pairs"], key=v["pairs"].get)
         print(f"{kind:14s} min pair dE {v['min_pair_delta_e']:6.2f} ({worst}), min vs white {v['min_background_delta_e']:6.2f}")
+    print(f"greyscale      min lightness step {result['greyscale']['min_lightness_step']:6.2f}")
+    print("passed" if passed else "FAILED")
+    return 0 if passed else 1
 
 
 if __name__ == "__main__":
-    main()
+    raise SystemExit(main())

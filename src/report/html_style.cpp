@@ -5,7 +5,7 @@ namespace gapmark {
 const char* report_css() {
   return R"css(
 :root { --ink: #2d3338; --muted: #5f6a71; --paper: #fbfaf7; --card: #ffffff; --line: #dde1e3;
-        --accent: #2f5f8f; --tied: #eef4ea; --warn: #fbf3e2; --warn-line: #d9b66a; }
+        --accent: #274571; --tied: #eef4ea; --warn: #fbf3e2; --warn-line: #d9b66a; }
 * { box-sizing: border-box; }
 body { margin: 0; background: var(--paper); color: var(--ink);
        font: 15px/1.5 system-ui, "Segoe UI", "Noto Sans", "DejaVu Sans", sans-serif; }
@@ -38,7 +38,7 @@ th { font-weight: 600; background: #f3f4f1; position: sticky; top: 0; }
 td.name, th.name { text-align: left; }
 tr.tied td { background: var(--tied); }
 td.mark { text-align: center; color: #3b7a3b; font-weight: 700; }
-td.failed { color: #a0522d; }
+td.failed { color: #952e17; }
 details { margin: 6px 0; }
 details > summary { cursor: pointer; font-weight: 600; padding: 4px 0; }
 details > summary .sub { font-weight: 400; color: var(--muted); }

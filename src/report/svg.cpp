@@ -56,15 +56,21 @@ std::string tick_label(double v) {
 }
 
 Style style(std::size_t index) {
-  // Chosen so that every pair stays apart in CAM02-UCS under simulated
-  // protan, deutan and tritan vision (reference/report/palette_check.py).
+  // The project's own six colours, found by a seeded search
+  // (reference/report/palette_search.py) for the largest smallest CAM02-UCS
+  // difference between any two of them under normal, protan, deutan and
+  // tritan vision, with lightness steps of at least 7 (J') so that they stay
+  // apart in greyscale, in moderate chroma, each well away from the white
+  // background; checked by reference/report/palette_check.py. Ordered dark to
+  // light, and each has its own dash pattern and marker, so colour is never
+  // the only cue.
   static const Style styles[kStyles] = {
-      {"#2f5f8f", "", "circle"},          // deep blue
-      {"#e0b040", "7 3", "square"},       // gold
-      {"#a0522d", "2 3", "triangle"},     // sienna
-      {"#7fb8a4", "9 3 2 3", "diamond"},  // mint
-      {"#b07aa1", "4 2", "plus"},         // mauve
-      {"#3e8c76", "1 3", "ring"},         // sea green
+      {"#274571", "", "circle"},          // navy
+      {"#952e17", "7 3", "square"},       // rust
+      {"#8553d7", "2 3", "triangle"},     // violet
+      {"#cd5f76", "9 3 2 3", "diamond"},  // rose
+      {"#5fa7d8", "4 2", "plus"},         // sky
+      {"#c8b514", "1 3", "ring"},         // mustard
   };
   if (index < kStyles) return styles[index];
   return {"#a3aab0", "", "ring"};

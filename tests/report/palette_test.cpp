@@ -1,8 +1,10 @@
 // The method colours of report.html stay distinguishable for readers with a
 // colour-vision deficiency. Source: reference/report/palette.json, made by
 // reference/report/palette_check.py with colorspacious (CAM02-UCS colour
-// difference, Machado 2009 simulation at severity 100). The threshold of 10
-// is common practice for telling thin lines apart, with no published source.
+// difference, Machado 2009 simulation at severity 100; CAM02-UCS lightness
+// for greyscale). The thresholds (10 between lines, 6 between lightness
+// steps) are common practice for telling thin lines apart, with no published
+// source.
 #include <doctest/doctest.h>
 
 #include <fstream>
@@ -22,6 +24,9 @@ TEST_CASE("the stored palette check is of the palette in use, and every pair sta
     CHECK(ref["vision"][vision]["min_pair_delta_e"].get<double>() >= 10.0);
     CHECK(ref["vision"][vision]["min_background_delta_e"].get<double>() >= 20.0);
   }
+  // In greyscale only lightness is left: each colour a step of at least 6 (J') from the next.
+  CHECK(ref["greyscale"]["min_lightness_step"].get<double>() >= 6.0);
+  CHECK(ref["passed"].get<bool>());
   // Colour is never the only cue: dash patterns and markers differ too.
   for (std::size_t i = 0; i < gapmark::svg::kStyles; ++i)
     for (std::size_t j = i + 1; j < gapmark::svg::kStyles; ++j) {
