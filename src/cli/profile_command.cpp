@@ -14,6 +14,7 @@ void add_profile(CLI::App& app, Action& action) {
     std::string input;
     std::vector<std::string> group, columns;
     std::string time_column, step, svg;
+    std::size_t period = 0;
     bool json = false;
   };
   auto o = std::make_shared<Options>();
@@ -23,6 +24,8 @@ void add_profile(CLI::App& app, Action& action) {
   cmd->add_option("--column,-c", o->columns, "A value column to profile (repeat; default: every other column)");
   cmd->add_option("--time-column", o->time_column, "Name of the time column (default: the first column that is not a group)");
   cmd->add_option("--step", o->step, "The expected step, ISO 8601 (PT15M, PT1H, P1D, P1M) or an integer (default: the most common spacing)");
+  cmd->add_option("--period", o->period, "Seasonal period in steps (default: from the step); adds missingness by its phase")
+      ->check(CLI::Range(2, 1000000));
   cmd->add_flag("--json", o->json, "Write the profile as JSON on stdout");
   cmd->add_option("--svg", o->svg, "Also draw a completeness picture into this SVG file");
   cmd->callback([&action, o] {
@@ -34,6 +37,7 @@ void add_profile(CLI::App& app, Action& action) {
       const data::RawData raw = data::read_raw(o->input, read);
       data::ProfileOptions options;
       if (!o->step.empty()) options.step = Step::parse(o->step, "--step");
+      options.period = o->period;
       const data::DataProfile profile = data::profile_data(raw, options);
       std::cout << (o->json ? data::profile_json(profile) : data::profile_text(profile));
       if (!o->svg.empty()) {

@@ -119,6 +119,7 @@ void add_run(CLI::App& app, Action& action) {
     std::string resume;
     std::string shard;
     unsigned threads = 0;
+    std::size_t period = 0;
     bool quiet = false;
     CLI::Option* resume_option = nullptr;
   };
@@ -135,10 +136,15 @@ void add_run(CLI::App& app, Action& action) {
   cmd->add_option("--shard", o->shard,
                   "Run only shard K of N (1-based): the tasks whose index mod N is K-1; combine the shard "
                   "folders with `gapmark merge`");
+  cmd->add_option("--period", o->period,
+                  "Seasonal period in time steps for every data set, replacing the spec's \"period\" and \"periods\" "
+                  "(recorded in results.json; a resume must give the same)")
+      ->check(CLI::Range(2, 1000000));
   cmd->add_flag("--quiet,-q", o->quiet, "No progress output");
   cmd->callback([&action, o] {
     action = [o] {
       ExperimentSpec spec = load_spec(o->spec);
+      if (o->period) spec = with_period(spec, o->period);
       const bool resume = o->resume_option->count() > 0;
       if (resume && !o->resume.empty() && !o->out.empty() &&
           std::filesystem::path(o->resume).lexically_normal() != std::filesystem::path(o->out).lexically_normal())

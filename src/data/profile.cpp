@@ -33,7 +33,8 @@ std::vector<std::string> phase_units(TimeKind kind, const Step& step) {
   return {"month"};
 }
 
-int phase_of(const TimeAxis& axis, std::size_t i, const std::string& unit) {
+int phase_of(const TimeAxis& axis, std::size_t i, const std::string& unit, std::size_t period) {
+  if (unit == "phase") return static_cast<int>(i % period);
   if (unit == "hour") return axis.hour_of_day(i);
   if (unit == "weekday") return axis.day_of_week(i);
   return axis.month(i);
@@ -131,7 +132,7 @@ GroupGrid lay_out_group(const RawData& raw, const RawGroup& group, std::size_t g
 }
 
 SeriesProfile profile_series(const RawData& raw, const GroupGrid& grid, std::size_t g, std::size_t v,
-                             const std::vector<std::string>& units) {
+                             const std::vector<std::string>& units, std::size_t period) {
   SeriesProfile s;
   s.variable = raw.value_columns[v];
   s.group = g;
@@ -194,7 +195,7 @@ SeriesProfile profile_series(const RawData& raw, const GroupGrid& grid, std::siz
   for (const auto& unit : units) {
     std::map<int, std::pair<std::size_t, std::size_t>> counts;
     for (std::size_t i = 0; i < n; ++i) {
-      auto& c = counts[phase_of(grid.profile.grid, i, unit)];
+      auto& c = counts[phase_of(grid.profile.grid, i, unit, period)];
       ++c.first;
       if (s.states[i] != SlotState::Present) ++c.second;
     }
@@ -228,11 +229,16 @@ DataProfile profile_data(const RawData& raw, const ProfileOptions& options) {
   p.offset_minutes = raw.offset_minutes;
   p.utc_z = raw.utc_z;
   p.step = choose_step(raw, options, p.step_given);
-  const auto units = phase_units(raw.kind, p.step);
+  auto units = phase_units(raw.kind, p.step);
+  p.period_given = options.period >= 2;
   for (std::size_t g = 0; g < raw.groups.size(); ++g) {
     GroupGrid grid = lay_out_group(raw, raw.groups[g], g, p.step);
+    if (g == 0) {
+      p.period = p.period_given ? options.period : grid.profile.grid.default_period();
+      if (p.period_given) units.push_back("phase");  // the step's default period is already a calendar phase
+    }
     for (std::size_t v = 0; v < raw.value_columns.size(); ++v)
-      p.series.push_back(profile_series(raw, grid, g, v, units));
+      p.series.push_back(profile_series(raw, grid, g, v, units, p.period));
     p.groups.push_back(std::move(grid.profile));
   }
   return p;

@@ -19,6 +19,7 @@ std::string phase_name(const std::string& unit, int phase) {
                                  "Jul", "Aug", "Sep", "Oct", "Nov", "Dec"};
   if (unit == "weekday" && phase >= 1 && phase <= 7) return weekdays[phase];
   if (unit == "month" && phase >= 1 && phase <= 12) return months[phase];
+  if (unit == "phase") return std::to_string(phase);
   char buf[16];
   std::snprintf(buf, sizeof buf, "%02dh", phase);
   return buf;
@@ -83,6 +84,9 @@ std::string profile_text(const DataProfile& p) {
                     std::to_string(p.value_columns.size()) + " value column" + (p.value_columns.size() == 1 ? "" : "s") +
                     "\n";
   out += "Step " + p.step.iso() + (p.step_given ? " (given)" : " (inferred: the most common spacing between rows)");
+  out += std::string("; period ") +
+         (p.period >= 2 ? std::to_string(p.period) + (p.period_given ? " (given)" : " (from the step; --period sets it)")
+                        : "none (--period sets one)");
   if (p.offset_minutes) out += "; times at UTC offset " + format_time(TimeKind::DateTime, 0, p.offset_minutes, p.utc_z).substr(16);
   out += "\n\n";
 
@@ -180,6 +184,8 @@ std::string profile_json(const DataProfile& p) {
   j["value_columns"] = p.value_columns;
   j["step"] = p.step.iso();
   j["step_given"] = p.step_given;
+  j["period"] = p.period;
+  j["period_given"] = p.period_given;
   j["utc_offset"] = p.offset_minutes ? json(format_time(TimeKind::DateTime, 0, p.offset_minutes, p.utc_z).substr(16)) : json();
   json groups = json::array();
   for (const auto& g : p.groups) {

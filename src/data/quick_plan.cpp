@@ -37,11 +37,12 @@ std::string kind_name(VariableKind kind) {
     case VariableKind::Count: return "count";
     case VariableKind::Level: return "level";
     case VariableKind::Smooth: return "smooth";
+    case VariableKind::Unknown: return "unknown";
   }
   return "";
 }
 
-KindGuess guess_kind(std::span<const double> values) {
+KindGuess guess_kind(std::span<const double> values, std::size_t event_rows) {
   std::vector<double> x;
   for (double v : values)
     if (std::isfinite(v)) x.push_back(v);
@@ -53,49 +54,27 @@ KindGuess guess_kind(std::span<const double> values) {
   const bool non_negative = std::all_of(x.begin(), x.end(), [](double v) { return v >= 0; });
   const bool whole = std::all_of(x.begin(), x.end(), [](double v) { return v == std::floor(v); });
   const double zeros = double(std::count(x.begin(), x.end(), 0.0)) / double(x.size());
-  if (non_negative && (whole || zeros >= 0.3)) {
+  if (non_negative && zeros >= 0.3) {
     g.kind = VariableKind::Count;
-    g.reason = whole ? "non-negative whole numbers" : "non-negative, " + percent(zeros) + " zeros";
+    g.reason = "non-negative, " + percent(zeros) + " exact zeros";
     return g;
   }
-  // Lag-1 differences between consecutive observed points against the values.
-  double mean = 0;
-  for (double v : x) mean += v;
-  mean /= double(x.size());
-  double var = 0, dvar = 0;
-  std::size_t dn = 0;
-  for (double v : x) var += (v - mean) * (v - mean);
-  for (std::size_t i = 1; i < values.size(); ++i)
-    if (std::isfinite(values[i]) && std::isfinite(values[i - 1])) {
-      const double d = values[i] - values[i - 1];
-      dvar += d * d;
-      ++dn;
-    }
-  const double ratio = (var > 0 && dn > 0) ? (dvar / double(dn)) / (var / double(x.size())) : 1;
-  g.kind = ratio < 0.2 ? VariableKind::Smooth : VariableKind::Level;
-  g.reason = "step-to-step changes have " + short_number(ratio) + " of the values' variance (below 0.2: smooth)";
+  if (non_negative && event_rows > 0) {
+    g.kind = VariableKind::Count;
+    g.reason = "non-negative, with event rows (" + std::to_string(event_rows) + " rows share a time step with another)";
+    return g;
+  }
+  g.reason = std::string(whole && non_negative ? "non-negative whole numbers, but whole numbers alone do not make a count"
+                                               : "no sign of a count") +
+             " (" + percent(zeros) + " exact zeros, no event rows)";
   return g;
 }
 
-std::vector<std::string> default_methods(VariableKind kind, bool has_period) {
-  std::vector<std::string> out;
-  switch (kind) {
-    case VariableKind::Count:
-      out = {"zero", "carry-forward", "linear", "window-mean"};
-      if (has_period) out.push_back("seasonal-mean");
-      out.push_back("kalman:model=level");
-      break;
-    case VariableKind::Level:
-      out = {"carry-forward", "linear", "pchip", "natural-spline"};
-      if (has_period) out.push_back("seasonal-adjusted");
-      out.push_back("kalman:model=level");
-      break;
-    case VariableKind::Smooth:
-      out = {"linear", "pchip", "natural-spline", "makima"};
-      if (has_period) out.push_back("seasonal-adjusted");
-      out.push_back("kalman:model=trend");
-      break;
-  }
+std::vector<std::string> candidate_methods(bool count, bool has_period, bool has_siblings) {
+  std::vector<std::string> out = {"mean", "carry-forward", "linear", "pchip", "kalman:model=level"};
+  if (has_period) out.push_back("seasonal-mean");
+  if (count) out.insert(out.begin(), "zero");
+  if (has_siblings) out.push_back("low-rank");
   return out;
 }
 
@@ -106,6 +85,10 @@ std::string kind_caution(VariableKind kind, const std::string& variable) {
            "  gapmark regularize RAW.csv --step STEP --agg " + variable + "=sum --empty " + variable + "=zero ...\n"
            "and keep missing only the intervals known to be unobserved (the logger or the scale was down). Filling a\n"
            "true zero with an interpolated amount invents events; filling an outage with zero hides them.\n";
+  if (kind == VariableKind::Unknown)
+    return "The kind of '" + variable + "' is unknown: its values alone cannot tell a count from a measurement. An absent\n"
+           "record is treated as an unknown value here, never as zero. If '" + variable + "' counts events or totals\n"
+           "amounts, rerun with --kind count; for a reading of a state or a smooth quantity, --kind level or --kind smooth.\n";
   return "'" + variable + "' is " +
          (kind == VariableKind::Smooth ? "a smooth quantity (a reading of something that varies smoothly)"
                                        : "a level (a reading of a state that holds between readings)") +
@@ -134,6 +117,7 @@ QuickPlan plan_quick(const DataProfile& profile, const QuickPlanInput& input) {
     }
     if (!plan.period && !profile.groups.empty()) plan.period = profile.groups[s.group].grid.default_period();
   }
+  if (input.period) plan.period = input.period;
   if (first) throw InputError(profile.source, "no value column '" + input.column + "'");
   plan.observed_missing = expected ? double(missing) / double(expected) : 0;
   plan.mask_rate = std::clamp(plan.observed_missing, 0.05, 0.5);
@@ -142,9 +126,12 @@ QuickPlan plan_quick(const DataProfile& profile, const QuickPlanInput& input) {
   plan.mean_gap = gaps ? double(gap_points) / double(gaps) : 0;
   plan.holdout = plan.period ? 2 * plan.period : std::max<std::size_t>(10, shortest / 10);
   plan.holdout = std::min(plan.holdout, shortest / 5);
-  plan.methods = default_methods(input.kind, plan.period >= 2);
+  plan.methods = candidate_methods(input.kind == VariableKind::Count, plan.period >= 2, !input.siblings.empty());
 
-  json data = {{"file", input.data_file}, {"columns", {input.column}}};
+  json columns = json::array({input.column});
+  for (const auto& s : input.siblings) columns.push_back(s);
+  json data = {{"file", input.data_file}, {"columns", columns}};
+  if (input.period) data["period"] = input.period;
   if (!input.groups.empty()) data["groups"] = input.groups;
   if (!input.time_column.empty()) data["time_column"] = input.time_column;
   if (input.step) data["step"] = input.step->iso();
@@ -168,7 +155,11 @@ QuickPlan plan_quick(const DataProfile& profile, const QuickPlanInput& input) {
   return plan;
 }
 
-Recommendation recommend(const Summary& summary, const ResultSet& results) {
+Recommendation recommend(const Summary& all, const ResultSet& results, const std::string& variable) {
+  Summary summary = all;
+  if (!variable.empty())
+    std::erase_if(summary.groups,
+                  [&](const CellGroup& g) { return g.series != variable && g.series.rfind(variable + "[", 0) != 0; });
   Recommendation r;
   r.rank_by = summary.rank_by;
   r.alpha = summary.alpha;

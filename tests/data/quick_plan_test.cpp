@@ -11,28 +11,39 @@
 using namespace gapmark;
 using namespace gapmark::data;
 
-TEST_CASE("kind guesses: a rule of thumb") {
+TEST_CASE("kind guesses: count only from the data's own structure, never from whole numbers alone") {
   CHECK(guess_kind(std::vector<double>{0, 0, 3, 0, 1, 0, 2, 0}).kind == VariableKind::Count);
   CHECK(guess_kind(std::vector<double>{0, 0, 2.5, 0, 0, 3.1}).kind == VariableKind::Count);
-  std::vector<double> smooth, rough;
-  for (int i = 0; i < 200; ++i) {
-    smooth.push_back(5.5 + std::sin(i * 0.1));
-    rough.push_back(5.5 + ((i * 7919) % 13) * 0.1);
-  }
-  CHECK(guess_kind(smooth).kind == VariableKind::Smooth);
-  CHECK(guess_kind(rough).kind == VariableKind::Level);
+  // Whole numbers without zeros (a concentration in whole ppb): unknown, and the reason says why.
+  const KindGuess ozone = guess_kind(std::vector<double>{41, 36, 12, 18, 28, 23, 19, 8, 7, 16});
+  CHECK(ozone.kind == VariableKind::Unknown);
+  CHECK(ozone.reason.find("whole numbers alone do not make a count") != std::string::npos);
+  // 20% zeros is not enough; event rows are.
+  CHECK(guess_kind(std::vector<double>{0, 3, 4, 5, 6, 0, 7, 8, 9, 1}).kind == VariableKind::Unknown);
+  CHECK(guess_kind(std::vector<double>{0, 3, 4, 5, 6, 0, 7, 8, 9, 1}, 4).kind == VariableKind::Count);
+  // Negative values are never a count.
+  CHECK(guess_kind(std::vector<double>{0, 0, 0, -1, 0, 2}).kind == VariableKind::Unknown);
+  std::vector<double> smooth;
+  for (int i = 0; i < 200; ++i) smooth.push_back(5.5 + std::sin(i * 0.1));
+  CHECK(guess_kind(smooth).kind == VariableKind::Unknown);
   CHECK(data_test::error_of([] { parse_kind("rate", "--kind"); }).rfind("--kind: unknown kind 'rate'", 0) == 0);
 }
 
-TEST_CASE("default methods by kind; seasonal ones only with a period") {
-  const auto count = default_methods(VariableKind::Count, true);
+TEST_CASE("the same candidates for every kind; zero for counts, seasonal-mean with a period, low-rank with siblings") {
+  const std::vector<std::string> core = {"mean", "carry-forward", "linear", "pchip", "kalman:model=level"};
+  CHECK(candidate_methods(false, false, false) == core);
+  const auto count = candidate_methods(true, true, false);
   CHECK(count.front() == "zero");
   CHECK(std::find(count.begin(), count.end(), "seasonal-mean") != count.end());
-  const auto smooth = default_methods(VariableKind::Smooth, false);
-  CHECK(std::find(smooth.begin(), smooth.end(), "seasonal-adjusted") == smooth.end());
-  CHECK(std::find(smooth.begin(), smooth.end(), "kalman:model=trend") != smooth.end());
+  const auto with_siblings = candidate_methods(false, false, true);
+  CHECK(std::find(with_siblings.begin(), with_siblings.end(), "low-rank") != with_siblings.end());
+  CHECK(std::find(with_siblings.begin(), with_siblings.end(), "zero") == with_siblings.end());
   CHECK(kind_caution(VariableKind::Count, "feed_kg").find("--empty feed_kg=zero") != std::string::npos);
   CHECK(kind_caution(VariableKind::Level, "salinity").find("not a zero") != std::string::npos);
+  const std::string unknown = kind_caution(VariableKind::Unknown, "ozone");
+  CHECK(unknown.find("never as zero") != std::string::npos);
+  CHECK(unknown.find("--kind count") != std::string::npos);
+  CHECK(unknown.find("=zero") == std::string::npos);
 }
 
 TEST_CASE("the plan: masks at the observed missing share, clamped, and a spec that parses") {
@@ -50,6 +61,7 @@ TEST_CASE("the plan: masks at the observed missing share, clamped, and a spec th
   input.column = "x";
   input.kind = VariableKind::Smooth;
   QuickPlan plan = plan_quick(profile, input);
+  CHECK(std::find(plan.methods.begin(), plan.methods.end(), "seasonal-mean") != plan.methods.end());
   CHECK(plan.observed_missing == doctest::Approx(0.125));
   CHECK(plan.mask_rate == doctest::Approx(0.125));
   CHECK(plan.replay);
@@ -70,6 +82,15 @@ TEST_CASE("the plan: masks at the observed missing share, clamped, and a spec th
   CHECK_FALSE(plan.replay);
   CHECK(plan.mask_rate == 0.05);
   CHECK(plan.spec["schemes"].size() == 2);
+
+  // A given period and siblings reach the spec.
+  input.period = 3;
+  input.siblings = {"y"};
+  plan = plan_quick(full, input);
+  CHECK(plan.period == 3);
+  CHECK(plan.spec["data"][0]["period"] == 3);
+  CHECK(plan.spec["data"][0]["columns"] == nlohmann::json::array({"x", "y"}));
+  CHECK(std::find(plan.methods.begin(), plan.methods.end(), "low-rank") != plan.methods.end());
 }
 
 TEST_CASE("the recommendation: lowest mean rank over the replay conditions, and who else is at the top") {

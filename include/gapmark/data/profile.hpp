@@ -48,7 +48,7 @@ struct GapLengthCount {
 
 /// Missingness by one calendar phase (hour of day, day of week, month).
 struct PhaseMissingness {
-  std::string unit;                 ///< "hour", "weekday" (ISO: Monday = 1) or "month"
+  std::string unit;                 ///< "hour", "weekday" (ISO: Monday = 1), "month" or "phase" (of the period, from 0)
   std::vector<int> phases;          ///< the phase values seen
   std::vector<std::size_t> expected, missing;  ///< per phase: grid points and missing ones
 };
@@ -79,6 +79,8 @@ struct DataProfile {
   TimeKind kind = TimeKind::Index;
   Step step;
   bool step_given = false;
+  std::size_t period = 0;        ///< seasonal period in steps: given, or the step's default (0 = none)
+  bool period_given = false;
   std::optional<int> offset_minutes;
   bool utc_z = false;
   std::vector<GroupProfile> groups;
@@ -87,6 +89,7 @@ struct DataProfile {
 
 struct ProfileOptions {
   std::optional<Step> step;  ///< empty: inferred (the most common spacing, or calendar months)
+  std::size_t period = 0;    ///< 0: the step's default; a given period adds missingness by its phase
 };
 
 DataProfile profile_data(const RawData& raw, const ProfileOptions& options = {});

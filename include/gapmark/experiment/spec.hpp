@@ -64,4 +64,10 @@ ExperimentSpec load_spec(const std::filesystem::path& path);
 ExperimentSpec parse_spec(const std::string& text, const std::string& source,
                           const std::filesystem::path& base_dir);
 
+/// The spec with every data set's seasonal period set to `period` (per-column
+/// "periods" dropped), as `run --period` asks. It is parsed again from the
+/// changed text, so its SHA-256, results.json and a checkpoint's check all
+/// follow the change.
+ExperimentSpec with_period(const ExperimentSpec& spec, std::size_t period);
+
 }  // namespace gapmark
