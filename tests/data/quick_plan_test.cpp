@@ -6,6 +6,8 @@
 
 #include "data_helpers.hpp"
 #include "gapmark/data/quick_plan.hpp"
+#include "gapmark/data/quick_risks.hpp"
+#include "gapmark/data/quick_setup.hpp"
 #include "gapmark/experiment/spec.hpp"
 
 using namespace gapmark;
@@ -130,4 +132,36 @@ TEST_CASE("the recommendation: lowest mean rank over the replay conditions, and 
   CHECK(text.find("Recommendation: pchip") != std::string::npos);
   CHECK(text.find("not distinguishable from it (best or tied in every one of them as well): linear") != std::string::npos);
   CHECK(text.find("acf_rms 0.025 (lowest: linear 0.01)") != std::string::npos);
+}
+
+// R's airquality (reference/airquality/export_airquality.R): ozone in whole
+// ppb with 37 of 153 days missing, 21 of them in June 1973.
+TEST_CASE("quick's risks on airquality: the June cluster, the replicates, fills outside the observed range") {
+  QuickRequest request;
+  request.input = std::string(GAPMARK_SOURCE_DIR) + "/reference/airquality/airquality.csv";
+  request.column = "ozone";
+  QuickSetup setup = prepare_quick(request);
+  CHECK(setup.kind == VariableKind::Unknown);
+  CHECK(setup.siblings == std::vector<std::string>{"solar_r", "wind", "temp"});
+  CHECK(std::find(setup.plan.methods.begin(), setup.plan.methods.end(), "zero") == setup.plan.methods.end());
+
+  const auto clusters = gap_clusters(setup);
+  REQUIRE(clusters.size() == 1);
+  CHECK(clusters[0].window == "1973-06");
+  CHECK(clusters[0].missing == 21);
+  CHECK(clusters[0].points == 30);
+
+  // Exact signed-rank test: smallest p = 2 / 2^n; Holm over 6 comparisons needs 6 * 2 / 2^n < 0.05: n = 8.
+  CHECK(fewest_replicates(7, 0.05) == 8);
+  CHECK(fewest_replicates(2, 0.05) == 6);
+
+  // A natural spline through ozone's observed days swings outside 1..168; linear cannot.
+  setup.plan.methods = {"linear", "natural-spline", "natural-spline:bounds=1,168"};
+  double low = 0, high = 0;
+  const auto outside = fills_out_of_range(setup, low, high);
+  CHECK(low == 1);
+  CHECK(high == 168);
+  REQUIRE(outside.size() == 1);
+  CHECK(outside[0].method == "natural-spline");
+  CHECK((outside[0].low < 1 || outside[0].high > 168));
 }
