@@ -1,0 +1,47 @@
+#pragma once
+// Maximum-likelihood fit of an ARIMA model of given order (arima_model.hpp).
+//
+// The data are centred and scaled to unit variance first; results are in
+// data units. sigma^2 and the mean or drift are concentrated out, so the
+// search runs over the ARMA coefficients only. Each polynomial (AR, MA,
+// seasonal AR, seasonal MA) is parametrised by its partial autocorrelations
+// r_k = tanh(x_k) in (-1, 1), turned into coefficients by the Durbin-Levinson
+// recursion (Barndorff-Nielsen & Schou 1973; Jones 1980; Monahan 1984 for
+// the MA side), so every x gives a stationary AR and an invertible MA part.
+// The x are searched by BOBYQA (NLopt) from zero, within |x| <= 7 (|r| below
+// 0.999998); a fit whose x reaches that bound lies on the edge of
+// stationarity or invertibility and says so (at_bound).
+#include <cstddef>
+#include <span>
+#include <string>
+#include <vector>
+
+#include "gapmark/fill/arima_model.hpp"
+
+namespace gapmark::arima {
+
+struct Fit {
+  Order order;
+  Coefficients coefficients;
+  std::vector<double> beta;      ///< mean (data units) or drift per step, when order.constant
+  double sigma2 = 0;             ///< innovation variance, data units
+  double log_likelihood = 0;     ///< data units, as R's arima() reports it
+  double aicc = 0;               ///< -2 logL + 2k + 2k(k + 1)/(n - k - 1); +inf when n - k - 1 <= 0
+  std::size_t effective = 0;     ///< n: observed values minus the diffuse starting values
+  std::size_t evaluations = 0;   ///< likelihood passes
+  bool converged = true;         ///< the optimiser stopped on its tolerances, not on its budget
+  bool at_bound = false;         ///< a partial autocorrelation ended at the search bound
+  double centre = 0, scale = 1;  ///< the standardisation used internally
+};
+
+/// Partial autocorrelations -> coefficients of 1 - phi_1 B - ... (Durbin-Levinson).
+std::vector<double> coefficients_from_partials(std::span<const double> partials);
+
+/// Fits `order` to `y` (NaN = missing). Throws MethodFailure when the data
+/// are too few for the order or the likelihood cannot be evaluated.
+Fit fit(const Order& order, std::span<const double> y, std::size_t max_evaluations = 2000);
+
+/// The smoothed values and variances of `y` under a fit (data units).
+Smoothed smooth_fit(const Fit& fit, std::span<const double> y);
+
+}  // namespace gapmark::arima
