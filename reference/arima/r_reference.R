@@ -67,3 +67,11 @@ for (cs in cases) {
 write.csv(do.call(rbind, rows), file.path(out_dir, "r_reference.csv"), row.names = FALSE)
 writeLines(c(R.version.string, "arima(method = \"ML\", kappa = 1e10); KalmanSmooth on makeARIMA(kappa = 1e6)"),
            file.path(out_dir, "r_version.txt"))
+
+# complete series for the KPSS statistics computed by statsmodels_reference.py
+kp <- list(complete_lh = as.numeric(datasets::lh), complete_lakehuron = as.numeric(datasets::LakeHuron),
+           complete_log_ukdriverdeaths = log(as.numeric(datasets::UKDriverDeaths)))
+extra <- do.call(rbind, lapply(names(kp), function(k)
+  data.frame(case = "kpss", quantity = k, index = seq_along(kp[[k]]), value = kp[[k]])))
+write.table(extra, file.path(out_dir, "r_reference.csv"), append = TRUE, sep = ",", col.names = FALSE,
+            row.names = FALSE)

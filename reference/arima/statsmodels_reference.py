@@ -34,6 +34,8 @@ def seq(d):
 
 cases = []
 for name, q in rows.items():
+    if name == "kpss":
+        continue
     o = [int(v) for v in seq(q["order"])]
     y = seq(q["data"])
     codes = [NAMES[int(c) - 1] for c in seq(q["coef_names_code"])]
@@ -94,3 +96,25 @@ with open(f"{OUT}/arima_reference.json", "w") as f:
 for c in cases:
     print(c["name"], "R", round(c["r"]["loglik"], 5), "sm", round(c["statsmodels"]["loglik"], 5),
           "sm@R", round(c["statsmodels"]["loglik_at_r_estimates"], 5))
+
+# KPSS level-stationarity statistics (statsmodels.tsa.stattools.kpss, regression
+# "c", Bartlett window of trunc(4 (n/100)^(1/4)) lags) on complete open series.
+from statsmodels.tsa.stattools import kpss  # noqa: E402
+
+kpss_cases = []
+# the complete series are exported by the R script under quantity "complete_*"
+for key in ("complete_lh", "complete_lakehuron", "complete_log_ukdriverdeaths"):
+    x = np.array(seq(rows["kpss"][key]))
+    for d in (0, 1):
+        xx = np.diff(x, n=d) if d else x
+        lags = int(4 * (len(xx) / 100) ** 0.25)
+        with warnings.catch_warnings():
+            warnings.simplefilter("ignore")
+            stat = kpss(xx, regression="c", nlags=lags)[0]
+        kpss_cases.append({"name": key, "differences": d, "lags": lags, "data": [float(v) for v in x],
+                           "statistic": float(stat)})
+doc = json.load(open(f"{OUT}/arima_reference.json"))
+doc["kpss"] = kpss_cases
+with open(f"{OUT}/arima_reference.json", "w") as f:
+    json.dump(doc, f, indent=1)
+print("kpss", [(c["name"], c["differences"], round(c["statistic"], 4)) for c in kpss_cases])

@@ -62,8 +62,13 @@ double objective(unsigned n, const double* x, double* grad, void* data) {
 
 }  // namespace
 
-Fit fit(const Order& order, std::span<const double> y, std::size_t max_evaluations) {
-  const state_space::Standardised data = state_space::standardise(y);
+Fit fit(const Order& order, std::span<const double> y, const FitTolerance& tolerance) {
+  state_space::Standardised data = state_space::standardise(y);
+  if (order.d + order.seasonal_d == 0 && !order.constant && data.scale > 0) {
+    // a zero-mean model: scaled, not centred (differencing would remove a centre)
+    for (std::size_t t = 0; t < y.size(); ++t) data.z[t] = y[t] / data.scale;
+    data.centre = 0;
+  }
   const std::size_t nd = order.differencing_lags();
   const std::size_t k = order.arma_count() + (order.constant ? 1 : 0) + 1;
   if (data.observed < nd + k + 2)
@@ -81,9 +86,9 @@ Fit fit(const Order& order, std::span<const double> y, std::size_t max_evaluatio
     opt.set_lower_bounds(std::vector<double>(x.size(), -kBound));
     opt.set_upper_bounds(std::vector<double>(x.size(), kBound));
     opt.set_min_objective(objective, &obj);
-    opt.set_xtol_abs(1e-7);
-    opt.set_ftol_abs(1e-10);
-    opt.set_maxeval(static_cast<int>(max_evaluations));
+    opt.set_xtol_abs(tolerance.x);
+    opt.set_ftol_abs(tolerance.log_likelihood);
+    opt.set_maxeval(static_cast<int>(tolerance.max_evaluations));
     opt.set_initial_step(0.2);
     double value = 0;
     try {

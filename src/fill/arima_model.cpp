@@ -88,9 +88,10 @@ StateSpace::StateSpace(const Polynomials& poly) {
 
 void StateSpace::transition(Eigen::Ref<Eigen::MatrixXd> x) const {
   const Eigen::Index r = static_cast<Eigen::Index>(r_), nd = static_cast<Eigen::Index>(nd_);
-  const Eigen::RowVectorXd first = x.row(0);
+  thread_local Eigen::RowVectorXd first, lag0;  // scratch, reused across calls
+  first = x.row(0);
   if (nd > 0) {
-    Eigen::RowVectorXd lag0 = first;
+    lag0 = first;
     for (Eigen::Index j = 0; j < nd; ++j)
       if (delta_[static_cast<std::size_t>(j)] != 0) lag0 += delta_[static_cast<std::size_t>(j)] * x.row(r + j);
     for (Eigen::Index j = nd - 1; j >= 1; --j) x.row(r + j) = x.row(r + j - 1);
@@ -102,12 +103,13 @@ void StateSpace::transition(Eigen::Ref<Eigen::MatrixXd> x) const {
 
 void StateSpace::transition_transposed(Eigen::Ref<Eigen::MatrixXd> x) const {
   const Eigen::Index r = static_cast<Eigen::Index>(r_), nd = static_cast<Eigen::Index>(nd_);
-  Eigen::RowVectorXd first = phi_[0] * x.row(0);
+  thread_local Eigen::RowVectorXd first, lag0;  // scratch, reused across calls
+  first = phi_[0] * x.row(0);
   for (Eigen::Index i = 1; i < r; ++i)
     if (phi_[static_cast<std::size_t>(i)] != 0) first += phi_[static_cast<std::size_t>(i)] * x.row(i);
   if (nd > 0) {
     first += x.row(r);
-    const Eigen::RowVectorXd lag0 = x.row(r);
+    lag0 = x.row(r);
     for (Eigen::Index j = 0; j < nd; ++j) {
       const double dj = delta_[static_cast<std::size_t>(j)];
       if (j + 1 < nd) x.row(r + j) = x.row(r + j + 1);
@@ -192,12 +194,20 @@ Pass run(const StateSpace& model, std::span<const double> y, std::span<const dou
   double sum_log_f = 0;
   if (keep) pass.steps.resize(n);
 
+  // Steady state: once a run of observed steps leaves the predicted P
+  // unchanged (to 1e-13 of its size), P, M and F stay as they are until the
+  // next missing value.
+  bool steady = false;
+  Eigen::MatrixXd p_before(m, m);
+  double f = 0;
   for (std::size_t t = 0; t < n; ++t) {
-    mvec.setZero();
-    for (Eigen::Index c = 0; c < m; ++c) mvec(c) = model.design(p.col(c));  // P Z' (P symmetric)
-    const double f = model.design(mvec);
-    for (Eigen::Index c = 0; c < cols; ++c) za(c) = model.design(a.col(c));
     const bool observed = !std::isnan(y[t]);
+    if (!observed) steady = false;
+    if (!steady) {
+      for (Eigen::Index c = 0; c < m; ++c) mvec(c) = model.design(p.col(c));  // P Z' (P symmetric)
+      f = model.design(mvec);
+    }
+    for (Eigen::Index c = 0; c < cols; ++c) za(c) = model.design(a.col(c));
     if (observed) {
       if (!(f > 0) || !std::isfinite(f)) {
         lik.finite = false;
@@ -211,7 +221,6 @@ Pass run(const StateSpace& model, std::span<const double> y, std::span<const dou
       sum_log_f += std::log(f);
       ++lik.observed;
       a.noalias() += mvec * (v / f);
-      p.noalias() -= mvec * mvec.transpose() / f;
     }
     if (keep) {
       Step& st = pass.steps[t];
@@ -222,10 +231,16 @@ Pass run(const StateSpace& model, std::span<const double> y, std::span<const dou
       if (observed) st.v = v;
     }
     model.transition(a);
+    if (steady) continue;
+    if (observed) {
+      p_before = p;
+      p.noalias() -= mvec * mvec.transpose() / f;
+    }
     model.transition(p);
     p.transposeInPlace();
     model.transition(p);
     p.topLeftCorner(r, r) += model.disturbance();
+    if (observed) steady = (p - p_before).cwiseAbs().maxCoeff() <= 1e-13 * p.cwiseAbs().maxCoeff();
   }
 
   lik.effective = lik.observed >= static_cast<std::size_t>(nd) ? lik.observed - static_cast<std::size_t>(nd) : 0;

@@ -37,9 +37,18 @@ struct Fit {
 /// Partial autocorrelations -> coefficients of 1 - phi_1 B - ... (Durbin-Levinson).
 std::vector<double> coefficients_from_partials(std::span<const double> partials);
 
+/// Stopping rules of the search.
+struct FitTolerance {
+  double x = 1e-7;                  ///< on the parameters x
+  double log_likelihood = 1e-10;    ///< on the log-likelihood (standardised data)
+  std::size_t max_evaluations = 2000;
+};
+/// Loose rules for comparing candidate orders; the chosen one is refitted tightly.
+inline constexpr FitTolerance kScreeningTolerance{1e-3, 1e-4, 300};
+
 /// Fits `order` to `y` (NaN = missing). Throws MethodFailure when the data
 /// are too few for the order or the likelihood cannot be evaluated.
-Fit fit(const Order& order, std::span<const double> y, std::size_t max_evaluations = 2000);
+Fit fit(const Order& order, std::span<const double> y, const FitTolerance& tolerance = {});
 
 /// The smoothed values and variances of `y` under a fit (data units).
 Smoothed smooth_fit(const Fit& fit, std::span<const double> y);
