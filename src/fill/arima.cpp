@@ -53,9 +53,9 @@ Triple parse_triple(const std::string& text, const std::string& field) {
 class Arima final : public FillMethod {
 public:
   Arima(bool automatic, ar::Order order, bool seasonal_given, std::string constant, ar::SearchBounds bounds,
-        bool edges_nearest)
+        std::size_t max_seasonal_period, bool edges_nearest)
       : automatic_(automatic), order_(order), seasonal_given_(seasonal_given), constant_(std::move(constant)),
-        bounds_(bounds), edges_nearest_(edges_nearest) {}
+        bounds_(bounds), max_seasonal_period_(max_seasonal_period), edges_nearest_(edges_nearest) {}
 
   FillResult fill(const FillRequest& request) const override {
     const auto& x = request.values;
@@ -82,19 +82,20 @@ public:
       return result;
     }
 
-    const ar::Fit fit = automatic_ ? ar::search_order(x, request.period, bounds_).best : fit_given(request);
+    const std::size_t search_period = request.period <= max_seasonal_period_ ? request.period : 0;
+    const ar::Fit fit = automatic_ ? ar::search_order(x, search_period, bounds_).best : fit_given(request);
     const ar::Smoothed s = ar::smooth_fit(fit, x);
     for (std::size_t t = 0; t < n; ++t) {
       if (!std::isnan(x[t])) continue;
       const double mean = s.mean[t], var = s.variance[t];
-      if (!std::isfinite(mean) || !std::isfinite(var))
+      if (!std::isfinite(mean) || std::isinf(var))
         throw MethodFailure("the smoother gave a non-finite value at point " + std::to_string(t + 1));
       if (t > first && t < last) {
         set(result, t, mean, var);
       } else if (edges_nearest_) {
         const std::size_t near = t < first ? first : last;
         const double gap = mean - x[near];
-        set(result, t, x[near], var + gap * gap);
+        set(result, t, x[near], in_data_units(var + gap * gap));
       } else {
         set(result, t, kNaN, kNaN);
       }
@@ -103,6 +104,10 @@ public:
   }
 
 private:
+  /// A variance that is no normal double (data beyond ~1e154 or below
+  /// ~1e-154, whose squares overflow or vanish) is given as NaN, as kalman does.
+  static double in_data_units(double v) { return v > 0 && !std::isnormal(v) ? kNaN : v; }
+
   static void set(FillResult& r, std::size_t t, double value, double variance) {
     r.values[t] = value;
     r.variance[t] = std::isnan(value) ? kNaN : variance;
@@ -129,6 +134,7 @@ private:
   bool seasonal_given_;
   std::string constant_;
   ar::SearchBounds bounds_;
+  std::size_t max_seasonal_period_;
   bool edges_nearest_;
 };
 
@@ -172,6 +178,10 @@ const Registration<FillMethod> registration{{
                bound_param("max_seasonal_d", 1, 1, "order=auto: most seasonal differences D"),
                bound_param("max_terms", 5, 4 * kMaxOrderTerm, "order=auto: largest p + q + P + Q"),
                bound_param("max_models", 60, 500, "order=auto: most models fitted in the search"),
+               bound_param("max_seasonal_period", 12, 1000,
+                           "order=auto: longest period whose seasonal part is searched (a seasonal model's state "
+                           "grows with the period: about 1 s per fit at 24 and 2,000 points); longer periods are "
+                           "searched without a seasonal part"),
                edges_param()},
     .needs = {.period = false, .siblings = false, .min_observed = 3},
     .make = [](const ParamValues& p) {
@@ -208,6 +218,7 @@ const Registration<FillMethod> registration{{
       b.max_models = static_cast<std::size_t>(p.integer("max_models"));
       if (automatic && !seasonal_auto) b.max_seasonal_p = b.max_seasonal_q = b.max_seasonal_d = 0;
       return std::make_unique<Arima>(automatic, o, !seasonal_auto, p.text("constant"), b,
+                                     static_cast<std::size_t>(p.integer("max_seasonal_period")),
                                      p.text("edges") == "nearest");
     },
 }};

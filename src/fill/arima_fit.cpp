@@ -130,7 +130,10 @@ Smoothed smooth_fit(const Fit& fit, std::span<const double> y) {
       continue;
     }
     s.mean[t] = fit.centre + fit.scale * s.mean[t];
-    s.variance[t] *= fit.scale * fit.scale;
+    // a variance that is no normal double in data units (data beyond ~1e154
+    // or below ~1e-154) is NaN: no interval, rather than an infinite or zero one
+    const double v = s.variance[t] * fit.scale * fit.scale;
+    s.variance[t] = s.variance[t] > 0 && !std::isnormal(v) ? std::numeric_limits<double>::quiet_NaN() : v;
   }
   return s;
 }

@@ -50,7 +50,8 @@ inline constexpr FitTolerance kScreeningTolerance{1e-3, 1e-4, 300};
 /// are too few for the order or the likelihood cannot be evaluated.
 Fit fit(const Order& order, std::span<const double> y, const FitTolerance& tolerance = {});
 
-/// The smoothed values and variances of `y` under a fit (data units).
+/// The smoothed values and variances of `y` under a fit (data units; a
+/// variance that is no normal double in data units is NaN).
 Smoothed smooth_fit(const Fit& fit, std::span<const double> y);
 
 }  // namespace gapmark::arima
