@@ -10,6 +10,7 @@
 #include "gapmark/number_format.hpp"
 #include "gapmark/report/table_text.hpp"
 #include "gapmark/stats/multiple_testing.hpp"
+#include "gapmark/stats/signed_rank_power.hpp"
 #include "gapmark/stats/wilcoxon.hpp"
 
 namespace gapmark {
@@ -238,9 +239,7 @@ Comparison compare_results(const ResultSet& baseline, const ResultSet& current, 
   // Fewest pairs whose smallest attainable two-sided exact p, 2 / 2^n, can
   // still reach alpha after Holm's correction over the candidate tests (the
   // compared metrics that changed with a direction): candidates * 2 / 2^n < alpha.
-  const double family = static_cast<double>(std::max<std::size_t>(candidates, 1));
-  out.min_pairs = 1;
-  while (family * std::ldexp(2.0, -static_cast<int>(out.min_pairs)) >= out.alpha && out.min_pairs < 64) ++out.min_pairs;
+  out.min_pairs = stats::fewest_signed_rank_pairs(candidates, out.alpha);
 
   // The tests with power, then Holm over every test made (all cells and metrics).
   std::vector<double> ps;

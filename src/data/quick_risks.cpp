@@ -10,14 +10,12 @@
 #include "gapmark/fill/method.hpp"
 #include "gapmark/number_format.hpp"
 #include "gapmark/report/table_text.hpp"
+#include "gapmark/stats/signed_rank_power.hpp"
 
 namespace gapmark::data {
 
 std::size_t fewest_replicates(std::size_t methods, double alpha) {
-  const double comparisons = static_cast<double>(std::max<std::size_t>(methods, 2) - 1);
-  std::size_t n = 1;
-  while (comparisons * std::ldexp(2.0, -static_cast<int>(n)) >= alpha && n < 64) ++n;
-  return n;
+  return stats::fewest_signed_rank_pairs(std::max<std::size_t>(methods, 2) - 1, alpha);
 }
 
 std::vector<GapCluster> gap_clusters(const QuickSetup& setup) {
