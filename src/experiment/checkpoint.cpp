@@ -91,7 +91,7 @@ std::string task_line(std::size_t task, const std::vector<TrialRecord>& trials,
   for (const auto& r : trials) {
     json metrics = json::array();
     for (double v : r.metrics) metrics.push_back(number_or_null(v));
-    json rec = {{"status", r.status}, {"masked", r.masked}, {"unfilled", r.unfilled},
+    json rec = {{"status", trial_status_name(r.status)}, {"masked", r.masked}, {"unfilled", r.unfilled},
                 {"seconds", number_or_null(r.seconds)}, {"metrics", std::move(metrics)}};
     if (!r.reason.empty()) rec["reason"] = r.reason;
     if (r.clipped) rec["clipped"] = r.clipped;
@@ -201,7 +201,7 @@ StoredTask parse_task(const json& j, const CheckpointGrid& grid, const std::stri
     for (std::size_t m = 0; m < trials.size(); ++m) {
       const auto& t = trials[m];
       TrialRecord r = grid.blank(out.task, m);
-      r.status = t.at("status").get<std::string>();
+      r.status = parse_trial_status(t.at("status").get<std::string>(), where);
       if (auto it = t.find("reason"); it != t.end()) r.reason = it->get<std::string>();
       r.masked = t.at("masked").get<std::size_t>();
       r.unfilled = t.at("unfilled").get<std::size_t>();

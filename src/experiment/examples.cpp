@@ -133,7 +133,7 @@ nlohmann::json example_for(const ExperimentSpec& spec, const LoadedData& data, c
       filled = method->impl->fill(fill_request).values;
       if (filled.size() != n) throw MethodFailure("returned the wrong number of values");
     } catch (const std::exception& e) {
-      entry["status"] = "failed";
+      entry["status"] = trial_status_name(TrialStatus::Failed);
       entry["reason"] = e.what();
       entry["filled"] = nullptr;
       methods.push_back(entry);
@@ -150,7 +150,7 @@ nlohmann::json example_for(const ExperimentSpec& spec, const LoadedData& data, c
     }
     nlohmann::json values = nlohmann::json::array();
     for (std::size_t i = start; i < start + width; ++i) values.push_back(mask[i] ? num(filled[i]) : nullptr);
-    entry["status"] = complete ? "ok" : "partial";
+    entry["status"] = trial_status_name(complete ? TrialStatus::Ok : TrialStatus::Partial);
     entry["filled"] = values;
     methods.push_back(entry);
     if (complete) acf_methods.push_back({{"method", ms.method}, {"values", acf_json(series.values, filled, lags)}});

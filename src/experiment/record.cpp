@@ -7,6 +7,22 @@
 
 namespace gapmark {
 
+const char* trial_status_name(TrialStatus status) {
+  switch (status) {
+    case TrialStatus::Ok: return "ok";
+    case TrialStatus::Partial: return "partial";
+    case TrialStatus::Failed: return "failed";
+    case TrialStatus::MaskFailed: return "mask-failed";
+  }
+  return "failed";
+}
+
+TrialStatus parse_trial_status(const std::string& text, const std::string& where) {
+  for (auto s : {TrialStatus::Ok, TrialStatus::Partial, TrialStatus::Failed, TrialStatus::MaskFailed})
+    if (text == trial_status_name(s)) return s;
+  throw InputError(where, "unknown trial status '" + text + "' (ok, partial, failed or mask-failed)");
+}
+
 std::string TrialRecord::name() const {
   return method + "/" + series + "/" + scheme + "@" + format_double(rate) + "/" + std::to_string(replicate);
 }
@@ -34,7 +50,7 @@ nlohmann::json trial_to_json(const TrialRecord& t, const std::vector<MetricColum
                         {"rate", t.rate},
                         {"replicate", t.replicate},
                         {"method", t.method},
-                        {"status", t.status},
+                        {"status", trial_status_name(t.status)},
                         {"reason", t.reason.empty() ? nlohmann::json(nullptr) : nlohmann::json(t.reason)},
                         {"masked", t.masked},
                         {"unfilled", t.unfilled},
@@ -52,7 +68,7 @@ TrialRecord trial_from_json(const nlohmann::json& j, const std::vector<MetricCol
     t.rate = j.at("rate").get<double>();
     t.replicate = j.at("replicate").get<int>();
     t.method = j.at("method").get<std::string>();
-    t.status = j.at("status").get<std::string>();
+    t.status = parse_trial_status(j.at("status").get<std::string>(), where);
     if (!j.at("reason").is_null()) t.reason = j.at("reason").get<std::string>();
     t.masked = j.at("masked").get<std::size_t>();
     t.unfilled = j.at("unfilled").get<std::size_t>();

@@ -110,7 +110,7 @@ std::vector<TrialRecord> run_task(const ExperimentSpec& spec, const LoadedData& 
     mask = plan.scheme.impl->draw(request, rng);
   } catch (const std::exception& e) {
     for (auto& r : records) {
-      r.status = "failed";
+      r.status = TrialStatus::MaskFailed;
       r.reason = std::string("mask: ") + e.what();
     }
     add_warning(warnings, {"mask-failed", records.front().series + " " + plan.scheme.label,
@@ -126,7 +126,7 @@ std::vector<TrialRecord> run_task(const ExperimentSpec& spec, const LoadedData& 
                            "raise the rate or use a longer series; errors from so few points are noisy"});
   if (masked == 0) {
     for (auto& r : records) {
-      r.status = "failed";
+      r.status = TrialStatus::MaskFailed;
       r.reason = "the mask hid no points (too few observed values for this rate): nothing to score";
     }
     return records;
@@ -159,7 +159,7 @@ std::vector<TrialRecord> run_task(const ExperimentSpec& spec, const LoadedData& 
         throw MethodFailure("returned " + std::to_string(result.values.size()) + " values for " +
                             std::to_string(holed.size()) + " points");
     } catch (const std::exception& e) {
-      rec.status = "failed";
+      rec.status = TrialStatus::Failed;
       rec.reason = e.what();
       rec.unfilled = masked;
       continue;
@@ -185,7 +185,9 @@ std::vector<TrialRecord> run_task(const ExperimentSpec& spec, const LoadedData& 
       add_warning(warnings, {"fills-clipped", method.label,
                              "fills outside the method's bounds were moved to the bound (each trial's \"clipped\" counts them)",
                              "many clipped points mean the method leaves the physical range: try transform=log or another method"});
-    rec.status = rec.unfilled == 0 ? "ok" : rec.unfilled == masked ? "failed" : "partial";
+    rec.status = rec.unfilled == 0        ? TrialStatus::Ok
+                 : rec.unfilled == masked ? TrialStatus::Failed
+                                          : TrialStatus::Partial;
     if (rec.unfilled) rec.reason = std::to_string(rec.unfilled) + " masked points left unfilled";
 
     ScoreInput score{series.values, result.values, result.variance, &mask, &series.axis, series.period,

@@ -173,7 +173,7 @@ Summary summarize(const ResultSet& results) {
       ms[m].trials++;
       // Only a trial that filled every masked point counts: a partial one is
       // scored on the easier points it did fill, which would flatter it.
-      if (t->status != "ok") {
+      if (t->status != TrialStatus::Ok) {
         ms[m].failures++;
         continue;  // ranked last in its replicate (NaN), left out of the means
       }

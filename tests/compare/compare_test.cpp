@@ -79,7 +79,7 @@ ResultSet one_cell(const std::vector<double>& values, Direction direction, bool 
     t.rate = 0.1;
     t.replicate = static_cast<int>(k);
     t.method = "linear";
-    t.status = "ok";
+    t.status = gapmark::TrialStatus::Ok;
     t.metrics = {values[k]};
     r.trials.push_back(t);
   }
@@ -219,7 +219,7 @@ TEST_CASE("more failed trials is a regression") {
   const std::vector<double> v{1, 2, 3, 4, 5, 6};
   ResultSet a = one_cell(v, Direction::Lower, false);
   ResultSet b = one_cell(v, Direction::Lower, false);
-  b.trials[2].status = "failed";
+  b.trials[2].status = gapmark::TrialStatus::Failed;
   b.trials[2].metrics = {std::nan("")};
   const Comparison c = compare_results(a, b);
   REQUIRE(c.regressed.size() == 1);

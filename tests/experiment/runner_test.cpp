@@ -86,7 +86,7 @@ TEST_CASE("the oracle scores zero error and the constant filler scores its known
   const auto mae = results.column_index("mae"), rmse = results.column_index("rmse"),
              bias = results.column_index("bias"), scored = results.column_index("scored");
   for (const auto& t : results.trials) {
-    CHECK(t.status == "ok");
+    CHECK(t.status == gapmark::TrialStatus::Ok);
     CHECK(t.masked > 0);
     CHECK(t.metrics[scored] == static_cast<double>(t.masked));
     if (t.method == "test-oracle") {
@@ -155,13 +155,13 @@ TEST_CASE("a failing method becomes failed records with its reason; the others g
   std::size_t failed = 0, ok = 0;
   for (const auto& t : results.trials) {
     if (t.method == "test-fails") {
-      CHECK(t.status == "failed");
+      CHECK(t.status == gapmark::TrialStatus::Failed);
       CHECK(t.reason == "deliberate failure");
       CHECK(t.unfilled == t.masked);
       CHECK(std::isnan(t.metrics[results.column_index("rmse")]));
       ++failed;
     } else {
-      CHECK(t.status == "ok");
+      CHECK(t.status == gapmark::TrialStatus::Ok);
       ++ok;
     }
   }

@@ -66,9 +66,8 @@ void check_trials(const ResultSet& results, bool rmse_at_least_mae = true) {
   const auto scored = results.column_index("scored");
   std::size_t ok = 0;
   for (const auto& t : results.trials) {
-    INFO(t.name() << ": " << t.status << " " << t.reason);
-    CHECK((t.status == "ok" || t.status == "partial" || t.status == "failed"));
-    if (t.status != "ok") {
+    INFO(t.name() << ": " << gapmark::trial_status_name(t.status) << " " << t.reason);
+    if (t.status != gapmark::TrialStatus::Ok) {
       CHECK_FALSE(t.reason.empty());
       continue;
     }
@@ -89,7 +88,7 @@ void check_trials(const ResultSet& results, bool rmse_at_least_mae = true) {
   if (std::getenv("GAPMARK_EDGE_DETAILS")) {
     std::set<std::string> seen;
     for (const auto& t : results.trials)
-      if (seen.insert(t.method + t.status + t.reason).second) MESSAGE(t.method << ": " << t.status << " " << t.reason);
+      if (seen.insert(t.method + gapmark::trial_status_name(t.status) + t.reason).second) MESSAGE(t.method << ": " << gapmark::trial_status_name(t.status) << " " << t.reason);
     for (const auto& w : results.warnings) MESSAGE("warning " << w.code << " " << w.where << ": " << w.message);
   }
 }
@@ -108,7 +107,7 @@ TEST_CASE("edge case: a constant series") {
   check_trials(results);
   // Every method that fills a constant series must fill it exactly.
   for (const auto& t : results.trials)
-    if (t.status == "ok" && t.method != "zero")  // zero fills 0 by definition
+    if (t.status == gapmark::TrialStatus::Ok && t.method != "zero")  // zero fills 0 by definition
       CHECK_MESSAGE(t.metrics[results.column_index("mae")] < 1e-9, t.name());
 }
 
@@ -125,7 +124,7 @@ TEST_CASE("edge case: magnitudes near 1e-300") {
 TEST_CASE("RMSE does not underflow to 0 for magnitudes near 1e-300") {
   const auto results = run_case("tiny_rmse", wave(300, 1e-300), 24, 24);
   for (const auto& t : results.trials) {
-    if (t.status != "ok") continue;
+    if (t.status != gapmark::TrialStatus::Ok) continue;
     const double mae = t.metrics[results.column_index("mae")], rmse = t.metrics[results.column_index("rmse")];
     CHECK_MESSAGE(rmse >= mae * (1 - 1e-12), t.name() << ": rmse " << rmse << " mae " << mae);
   }
@@ -141,7 +140,7 @@ TEST_CASE("edge case: a single observed value") {
   for (const auto& t : results.trials) {
     const auto* entry = MethodRegistry::global().find(CallSpec::parse(t.method, "test").name);
     REQUIRE(entry != nullptr);
-    if (entry->needs.min_observed > 0) CHECK_MESSAGE(t.status == "failed", t.name());
+    if (entry->needs.min_observed > 0) CHECK_MESSAGE(t.status == gapmark::TrialStatus::Failed, t.name());
   }
 }
 

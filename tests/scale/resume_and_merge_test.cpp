@@ -235,7 +235,7 @@ TEST_CASE("a task line reads back to the same records, NaN and extreme values in
   const std::vector<double> values{0.1, -0.0, 1e-300, 4.9e-324, 1.7976931348623157e308, std::nan(""), 2.0 / 3.0};
   for (std::size_t m = 0; m < grid.methods(); ++m) {
     TrialRecord r = grid.blank(5, m);
-    r.status = m == 0 ? "failed" : "ok";
+    r.status = m == 0 ? gapmark::TrialStatus::Failed : gapmark::TrialStatus::Ok;
     r.reason = m == 0 ? "a reason, with \"quotes\"\nand a newline" : "";
     r.masked = 17;
     r.unfilled = m == 0 ? 17 : 0;

@@ -23,7 +23,7 @@ gapmark::ResultSet results_from(const nlohmann::json& doc, const std::string& on
     r.rate = t["rate"].get<double>();
     r.replicate = t["replicate"].get<int>();
     r.method = t["method"].get<std::string>();
-    r.status = t["status"].get<std::string>();
+    r.status = gapmark::parse_trial_status(t["status"].get<std::string>(), "reference");
     r.metrics = {stats_test::number(t["rmse"])};
     rs.trials.push_back(r);
   }

@@ -14,13 +14,28 @@ namespace gapmark {
 
 inline constexpr int kResultsSchemaVersion = 1;
 
+/// How a trial ended. Written to checkpoints and results.json as the strings
+/// of trial_status_name ("ok", "partial", "failed", "mask-failed").
+enum class TrialStatus {
+  Ok,          ///< every masked point filled and scored
+  Partial,     ///< some masked points left unfilled (scored on the rest; ranked as a failure)
+  Failed,      ///< the method failed, or left every masked point unfilled
+  MaskFailed,  ///< the scheme could not mask the series, or hid no point: nothing was tested
+};
+
+/// The status's string in checkpoints and results.json.
+const char* trial_status_name(TrialStatus status);
+
+/// The status named by `text`; InputError(where, ...) on anything else.
+TrialStatus parse_trial_status(const std::string& text, const std::string& where);
+
 struct TrialRecord {
   std::string series;     ///< series label
   std::string scheme;     ///< canonical scheme call ("blocks:mean_length=12")
   double rate = 0;
   int replicate = 0;      ///< 0-based
   std::string method;     ///< canonical method call
-  std::string status;     ///< "ok", "partial" (some points unfilled) or "failed"
+  TrialStatus status = TrialStatus::Ok;
   std::string reason;     ///< why, when not ok
   std::size_t masked = 0;    ///< points hidden and scored
   std::size_t unfilled = 0;  ///< hidden points the method left empty
