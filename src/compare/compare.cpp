@@ -18,18 +18,6 @@ namespace {
 
 const double kNaN = std::numeric_limits<double>::quiet_NaN();
 
-/// Distance from the best value: smaller is better.
-double badness(double value, Direction d) {
-  switch (d) {
-    case Direction::Lower: return value;
-    case Direction::ZeroBest: return std::abs(value);
-    case Direction::OneBest: return std::abs(value - 1.0);
-    case Direction::Higher: return -value;
-    case Direction::None: return value;
-  }
-  return value;
-}
-
 using CellKey = std::tuple<std::string, std::string, double, std::string>;  // series, scheme, rate, method
 
 std::string cell_name(const CellKey& k) {
@@ -54,7 +42,7 @@ Indexed index_trials(const ResultSet& r, const std::string& source) {
     if (inserted) out.order.push_back(key);
     if (!it->second.by_replicate.emplace(t.replicate, &t).second)
       throw InputError(source, "trial " + t.name() + " appears twice");
-    if (t.status != "ok") ++it->second.failures;
+    if (t.status != TrialStatus::Ok) ++it->second.failures;
   }
   return out;
 }

@@ -19,18 +19,6 @@ namespace {
 
 const double kNaN = std::numeric_limits<double>::quiet_NaN();
 
-/// Maps a metric value to a "badness" score: smaller is better.
-double badness(double value, Direction direction) {
-  switch (direction) {
-    case Direction::Lower: return value;
-    case Direction::ZeroBest: return std::abs(value);
-    case Direction::Higher: return -value;
-    case Direction::OneBest: return std::abs(value - 1.0);
-    case Direction::None: return value;
-  }
-  return value;
-}
-
 MetricSummary describe(const std::vector<double>& xs, double level) {
   const auto d = stats::describe(xs, level);
   MetricSummary s;

@@ -1,5 +1,7 @@
 #include "gapmark/score/metric.hpp"
 
+#include <cmath>
+
 #include "gapmark/error.hpp"
 
 namespace gapmark {
@@ -22,6 +24,17 @@ Direction direction_from_string(const std::string& text) {
   if (text == "one") return Direction::OneBest;
   if (text == "none") return Direction::None;
   throw InputError("direction", "unknown direction '" + text + "'");
+}
+
+double badness(double value, Direction direction) {
+  switch (direction) {
+    case Direction::Lower: return value;
+    case Direction::ZeroBest: return std::abs(value);
+    case Direction::Higher: return -value;
+    case Direction::OneBest: return std::abs(value - 1.0);
+    case Direction::None: return value;
+  }
+  return value;
 }
 
 std::vector<std::string> default_metric_calls() {

@@ -8,7 +8,10 @@
 
 namespace gapmark::stats {
 
-std::vector<double> average_ranks(std::span<const double> x) {
+std::vector<double> average_ranks(std::span<const double> x) { return average_ranks_within(x, 0.0); }
+
+std::vector<double> average_ranks_within(std::span<const double> x, double tolerance) {
+  if (!(tolerance >= 0)) throw std::invalid_argument("average_ranks_within: negative tolerance");
   for (double v : x)
     if (std::isnan(v)) throw std::invalid_argument("average_ranks: NaN in input");
   std::vector<std::size_t> order(x.size());
@@ -19,7 +22,9 @@ std::vector<double> average_ranks(std::span<const double> x) {
   std::size_t i = 0;
   while (i < order.size()) {
     std::size_t j = i + 1;
-    while (j < order.size() && x[order[j]] == x[order[i]]) ++j;
+    while (j < order.size() &&
+           (x[order[j]] == x[order[j - 1]] || x[order[j]] - x[order[j - 1]] <= tolerance))
+      ++j;
     // positions i..j-1 (0-based) hold ranks i+1..j; their average:
     const double rank = 0.5 * static_cast<double>(i + 1 + j);
     for (std::size_t m = i; m < j; ++m) ranks[order[m]] = rank;

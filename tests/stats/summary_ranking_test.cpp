@@ -38,7 +38,7 @@ gapmark::TrialRecord trial(const std::string& method, int replicate, double valu
   r.rate = 0.1;
   r.replicate = replicate;
   r.method = method;
-  r.status = std::isnan(value) ? "failed" : "ok";
+  r.status = std::isnan(value) ? gapmark::TrialStatus::Failed : gapmark::TrialStatus::Ok;
   r.metrics = {value};
   return r;
 }
@@ -258,7 +258,7 @@ TEST_CASE("partial trials: left out of the means, ranked last, listed after comp
   for (int r = 0; r < 8; ++r) {
     rs.trials.push_back(trial("steady", r, 1.0 + 0.01 * r));
     auto t = trial("gappy", r, r < 3 ? 0.2 : 1.2 + 0.01 * r);
-    if (r < 3) t.status = "partial";
+    if (r < 3) t.status = gapmark::TrialStatus::Partial;
     rs.trials.push_back(t);
   }
   const auto g = gapmark::summarize(rs).groups.at(0);

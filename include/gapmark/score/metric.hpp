@@ -24,6 +24,12 @@ enum class Direction {
 std::string to_string(Direction d);
 Direction direction_from_string(const std::string& text);
 
+/// A metric value as a distance from its best value, so that smaller is
+/// better whatever the column's direction: the value (Lower, None), its
+/// absolute value (ZeroBest), |value - 1| (OneBest), minus the value (Higher).
+/// Every ranking, test and comparison orders methods by this one function.
+double badness(double value, Direction direction);
+
 struct MetricColumn {
   std::string name;     ///< "rmse", "acf_rms", "mase_filled"
   std::string unit;     ///< "value", "ratio", "count", "probability", "" ...
