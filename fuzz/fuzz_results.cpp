@@ -12,7 +12,7 @@
 
 #include "gapmark/error.hpp"
 #include "gapmark/experiment/results_io.hpp"
-#include "gapmark/experiment/summary.hpp"
+#include "gapmark/analysis/summary.hpp"
 
 namespace {
 

@@ -238,61 +238,95 @@ for k, df, q in [(2, None, 1.0), (3, None, 2.5), (4, None, 3.0), (6, None, 4.5),
     rb.add("ptukey", name, k, "Inf" if df is None else df, [], q)
 
 # ---------------------------------------------------------------- summary wiring
-# Trial tables for the ranking in src/experiment/summary.cpp, computed here
-# with scipy and statsmodels under the library's stated conventions:
+# Trial tables for the ranking in src/analysis/summary.cpp, computed here
+# with scipy and statsmodels under the library's stated conventions
+# (docs/statistics.md):
 #  - within a replicate, lower rmse ranks first, ties averaged, a trial with
-#    no value ranks after every value (ties among such);
-#  - the best method has the lowest mean rmse over its replicates with a value;
-#  - each other method: Wilcoxon signed-rank on (method - best) over the
-#    replicates where both have a value; exact p (scipy default) when n <= 50
-#    with no zero and no tied |d|, else wilcoxon(mode="approx", correction=False);
+#    no value ranks after every value (ties among such); differences at or
+#    below 1e-9 times the condition's scale (median |rmse|) count as ties;
+#  - the best method has the lowest mean rmse over its replicates with a value,
+#    among the methods that filled every trial;
+#  - each other method: Wilcoxon signed-rank on (method - best) over every
+#    replicate, a failed trial being the worst outcome of its replicate (only
+#    ranks and signs enter the test, so any value above all others gives the
+#    same result: 1e6 here); exact p (scipy default) when n <= 50 with no
+#    zero and no tied |d|, else wilcoxon(mode="approx", correction=False);
 #    Holm over the k - 1 comparisons (statsmodels multipletests);
-#  - Friedman over replicates on the table with "no value" as +inf
+#  - equivalence: statsmodels ttost_paired(method, best, -margin, margin) with
+#    margin = 0.05 * |best's mean| for methods without a failed trial, Holm
+#    over those comparisons;
+#  - standing: equivalent when the adjusted TOST p < alpha, else worse (or
+#    better) when the adjusted signed-rank p < alpha, else not distinguishable;
+#  - Friedman over replicates on the within-replicate ranks
 #    (scipy.stats.friedmanchisquare);
-#  - across series: each (series, scheme, rate) a data set, methods ranked by
-#    mean rmse (scipy.stats.rankdata), Friedman on those means, Iman-Davenport
-#    with scipy.stats.f.sf, critical difference from scipy.stats.studentized_range.
+#  - across series: per condition each series is a data set, methods ranked by
+#    their mean rank in that condition (scipy.stats.rankdata); with several
+#    conditions, each series' mean ranks are averaged over its conditions
+#    first ("combined"), so N = the number of series; Friedman,
+#    Iman-Davenport with scipy.stats.f.sf, critical difference from
+#    scipy.stats.studentized_range.
+
+EQUIVALENCE = 0.05
+FAILED = 1e6
 
 
 def wilcoxon_p(d):
     d = np.asarray(d, dtype=float)
     nonzero = d[d != 0]
     if len(nonzero) == 0:
-        return 1.0
+        return 1.0, 0.0, 0
     ties = len(np.unique(np.abs(nonzero))) < len(nonzero)
+    wplus = float(st.rankdata(np.abs(nonzero))[nonzero > 0].sum())
     if len(d) <= 50 and not ties and len(nonzero) == len(d):
-        return float(st.wilcoxon(d).pvalue)
-    return float(st.wilcoxon(d, mode="approx", correction=False).pvalue)
+        return float(st.wilcoxon(d).pvalue), wplus, len(nonzero)
+    return float(st.wilcoxon(d, mode="approx", correction=False).pvalue), wplus, len(nonzero)
 
 
 def group_reference(table, alpha):
     """table: replicates x methods rmse (NaN = failed)."""
+    from statsmodels.stats.weightstats import ttost_paired
     reps, k = table.shape
     keyed = np.where(np.isnan(table), np.inf, table)
     ranks = np.vstack([st.rankdata(row, method="average") for row in keyed])
     means = np.array([np.mean(table[~np.isnan(table[:, m]), m]) for m in range(k)])
-    best = int(np.argmin(means))
-    raw = []
+    failed = np.isnan(table).any(axis=0)
+    best = int(np.argmin(np.where(failed, np.inf, means)))
+    worst = np.where(np.isnan(table), FAILED, table)
+    margin = EQUIVALENCE * abs(means[best])
     others = [m for m in range(k) if m != best]
+    raw, worse, tost_raw = [], [], []
     for m in others:
-        both = ~np.isnan(table[:, m]) & ~np.isnan(table[:, best])
-        raw.append(wilcoxon_p(table[both, m] - table[both, best]))
+        p, wplus, n = wilcoxon_p(worst[:, m] - worst[:, best])
+        raw.append(p)
+        worse.append(2 * wplus >= n * (n + 1) / 2)
+        tost_raw.append(np.nan if failed[m] else float(ttost_paired(table[:, m], table[:, best], -margin, margin)[0]))
     adjusted = multipletests(raw, method="holm")[1]
-    stat, p = st.friedmanchisquare(*[keyed[:, m] for m in range(k)])
+    tested = [i for i, v in enumerate(tost_raw) if not np.isnan(v)]
+    tost_adjusted = [np.nan] * len(others)
+    for i, v in zip(tested, multipletests([tost_raw[i] for i in tested], method="holm")[1]):
+        tost_adjusted[i] = float(v)
+    stat, p = st.friedmanchisquare(*[ranks[:, m] for m in range(k)])
     out = {"best": best, "mean_rank": [float(v) for v in ranks.mean(axis=0)],
-           "mean": [float(v) for v in means], "p_vs_best": [None] * k, "tied_with_best": [True] * k,
+           "mean": [float(v) for v in means], "p_vs_best": [None] * k, "p_equivalent": [None] * k,
+           "standing": ["best"] * k, "margin": float(margin),
            "friedman_statistic": float(stat), "friedman_p": float(p)}
-    for m, raw_p, adj in zip(others, raw, adjusted):
-        out["p_vs_best"][m] = float(adj)
-        out["tied_with_best"][m] = bool(adj >= alpha)
+    for i, m in enumerate(others):
+        out["p_vs_best"][m] = float(adjusted[i])
+        out["p_equivalent"][m] = num(tost_adjusted[i])
+        if not np.isnan(tost_adjusted[i]) and tost_adjusted[i] < alpha:
+            out["standing"][m] = "equivalent"
+        elif adjusted[i] < alpha:
+            out["standing"][m] = "worse" if worse[i] else "better"
+        else:
+            out["standing"][m] = "not distinguishable"
     return out
 
 
-def across_reference(means, alpha):
-    """means: data sets x methods of mean rmse."""
-    n, k = means.shape
-    ranks = np.vstack([st.rankdata(row, method="average") for row in means])
-    stat, p = st.friedmanchisquare(*[means[:, m] for m in range(k)])
+def across_reference(scores, alpha):
+    """scores: data sets x methods, smaller is better (mean ranks within each data set)."""
+    n, k = scores.shape
+    ranks = np.vstack([st.rankdata(row, method="average") for row in scores])
+    stat, p = st.friedmanchisquare(*[scores[:, m] for m in range(k)])
     ff = (n - 1) * stat / (n * (k - 1) - stat)
     q = float(st.studentized_range.ppf(1 - alpha, k, np.inf))
     return {"datasets": n, "mean_ranks": [float(v) for v in ranks.mean(axis=0)],
@@ -300,6 +334,11 @@ def across_reference(means, alpha):
             "iman_davenport_f": float(ff),
             "iman_davenport_p": float(st.f.sf(ff, k - 1, (k - 1) * (n - 1))),
             "critical_difference": q / math.sqrt(2) * math.sqrt(k * (k + 1) / (6.0 * n))}
+
+
+def mean_ranks_of(table):
+    keyed = np.where(np.isnan(table), np.inf, table)
+    return np.vstack([st.rankdata(row, method="average") for row in keyed]).mean(axis=0)
 
 
 SUMMARY_ALPHA = 0.05
@@ -343,14 +382,14 @@ for rate, scale in ((0.1, 1.0), (0.3, 2.0)):
         if series == "s3":
             table[:, 3] = table[:, 0]
         add_trials(series, "scheme_y", rate, table)
-        rows.append(table.mean(axis=0))
+        rows.append(mean_ranks_of(table))
     across_means[rate] = np.array(rows)
 across_expected = {
     "scheme_y@0.1": across_reference(across_means[0.1], SUMMARY_ALPHA),
     "scheme_y@0.3": across_reference(across_means[0.3], SUMMARY_ALPHA),
-    "pooled": across_reference(np.vstack([across_means[0.1], across_means[0.3]]), SUMMARY_ALPHA),
+    "combined": across_reference((across_means[0.1] + across_means[0.3]) / 2, SUMMARY_ALPHA),
 }
-summary_doc = {"alpha": SUMMARY_ALPHA, "methods": summary_methods, "trials": summary_trials,
+summary_doc = {"alpha": SUMMARY_ALPHA, "equivalence": EQUIVALENCE, "methods": summary_methods, "trials": summary_trials,
                "group": {"series": "series_one", "scheme": "scheme_x", "rate": 0.2, **group_expected},
                "across": across_expected}
 
@@ -394,8 +433,9 @@ write("studentized_range.json",
       {"quantiles": tukey_quantiles, "cdf": tukey_cdf})
 write("summary.json",
       "Ranking in summarize(): trial records and the expected per-group ranks, Friedman, Wilcoxon "
-      "against the best with Holm, and across-series mean ranks, Friedman, Iman-Davenport and "
-      "critical difference, from scipy.stats (rankdata, friedmanchisquare, wilcoxon, f, "
-      "studentized_range) and statsmodels multipletests under the conventions stated in "
+      "against the best with Holm, paired TOST (statsmodels ttost_paired) with Holm, standings, and "
+      "across-series mean ranks (one data set per series), Friedman, Iman-Davenport and critical "
+      "difference, from scipy.stats (rankdata, friedmanchisquare, wilcoxon, f, studentized_range) "
+      "and statsmodels (multipletests, ttost_paired) under the conventions stated in "
       "make_reference.py.", summary_doc)
 print("wrote ranks, t_interval, friedman, wilcoxon, holm, studentized_range, summary JSON to", HERE)

@@ -14,7 +14,7 @@
 #include "gapmark/data/quick_setup.hpp"
 #include "gapmark/error.hpp"
 #include "gapmark/experiment/runner.hpp"
-#include "gapmark/experiment/summary.hpp"
+#include "gapmark/analysis/summary.hpp"
 #include "gapmark/report/reporter.hpp"
 #include "gapmark/report/table_text.hpp"
 
@@ -55,7 +55,12 @@ void add_quick(CLI::App& app, Action& action) {
       const ResultSet results = run_experiment(spec, run);  // with example windows
       const Summary summary = summarize(results);
       const auto written = write_reports(results, spec.output.string());
-      std::cout << data::recommendation_text(data::recommend(summary, results, setup.column)) << "\n";
+      // The verdict of the variable's own series (the file's other columns were scored too, as siblings).
+      RunVerdict shown = summary.verdict;
+      std::erase_if(shown.series, [&](const SeriesVerdict& v) {
+        return v.series != setup.column && v.series.rfind(setup.column + "[", 0) != 0;
+      });
+      std::cout << "Verdict (as in every report of " << spec.output.string() << "):\n" << verdict_text(shown) << "\n";
       std::cout << data::risks_text(data::quick_risks(setup, results)) << "\n";
       std::cout << "What an absent record means here:\n" << data::kind_caution(setup.kind, setup.column) << "\n";
       std::cout << "Filled values are estimates, not measurements. Where they feed safety decisions, follow the applicable\n"

@@ -1,10 +1,10 @@
-// The one-command answer: a default experiment from a profile and a
-// recommendation from the summary (see quick_plan.hpp).
+// The one-command answer: a default experiment from a profile (see
+// quick_plan.hpp). The recommendation is the summary's verdict
+// (analysis/verdict.hpp).
 #include "gapmark/data/quick_plan.hpp"
 
 #include <algorithm>
 #include <cmath>
-#include <map>
 
 #include "gapmark/data/text_columns.hpp"
 #include "gapmark/error.hpp"
@@ -15,13 +15,6 @@ namespace {
 
 using nlohmann::json;
 
-double mean_of(const std::vector<double>& x) {
-  double s = 0;
-  std::size_t n = 0;
-  for (double v : x)
-    if (std::isfinite(v)) s += v, ++n;
-  return n ? s / double(n) : std::nan("");
-}
 
 }  // namespace
 
@@ -153,133 +146,6 @@ QuickPlan plan_quick(const DataProfile& profile, const QuickPlanInput& input) {
                {"methods", plan.methods},
                {"rank_by", "rmse"}};
   return plan;
-}
-
-Recommendation recommend(const Summary& all, const ResultSet& results, const std::string& variable) {
-  Summary summary = all;
-  if (!variable.empty())
-    std::erase_if(summary.groups,
-                  [&](const CellGroup& g) { return g.series != variable && g.series.rfind(variable + "[", 0) != 0; });
-  Recommendation r;
-  r.rank_by = summary.rank_by;
-  r.alpha = summary.alpha;
-  r.conditions = summary.groups.size();
-  for (const auto& g : summary.groups)
-    if (g.scheme.rfind("replay", 0) == 0) ++r.primary;
-  r.primary_scheme = r.primary ? "replay" : "";
-  if (!r.primary) r.primary = r.conditions;
-  const auto is_primary = [&](const CellGroup& g) { return r.primary_scheme.empty() || g.scheme.rfind("replay", 0) == 0; };
-
-  const auto column = [&](const std::string& name) -> std::optional<std::size_t> {
-    for (std::size_t c = 0; c < results.columns.size(); ++c)
-      if (results.columns[c].name == name) return c;
-    return std::nullopt;
-  };
-  const auto rank_col = column(summary.rank_by), acf_col = column("acf_rms"), mase_col = column("mase_cost");
-
-  std::map<std::string, std::size_t> index;
-  std::vector<std::vector<double>> ranks, metric, acf, mase;
-  for (const auto& g : summary.groups)
-    for (const auto& m : g.methods) {
-      auto [it, added] = index.emplace(m.method, r.methods.size());
-      if (added) {
-        r.methods.push_back({m.method});
-        ranks.emplace_back();
-        metric.emplace_back();
-        acf.emplace_back();
-        mase.emplace_back();
-      }
-      const std::size_t k = it->second;
-      MethodStanding& s = r.methods[k];
-      s.failures += m.failures;
-      s.trials += m.trials;
-      if (m.tied_with_best) ++s.top;
-      if (!is_primary(g)) continue;
-      if (m.tied_with_best) ++s.top_primary;
-      ranks[k].push_back(m.mean_rank);
-      if (rank_col) metric[k].push_back(m.metrics[*rank_col].mean);
-      if (acf_col) acf[k].push_back(m.metrics[*acf_col].mean);
-      if (mase_col) mase[k].push_back(m.metrics[*mase_col].mean);
-    }
-  for (std::size_t k = 0; k < r.methods.size(); ++k) {
-    r.methods[k].mean_rank = mean_of(ranks[k]);
-    r.methods[k].rank_metric = mean_of(metric[k]);
-    r.methods[k].acf_rms = mean_of(acf[k]);
-    r.methods[k].mase_cost = mean_of(mase[k]);
-  }
-  std::stable_sort(r.methods.begin(), r.methods.end(), [](const MethodStanding& a, const MethodStanding& b) {
-    const double x = std::isnan(a.mean_rank) ? 1e300 : a.mean_rank, y = std::isnan(b.mean_rank) ? 1e300 : b.mean_rank;
-    return x < y;
-  });
-  for (std::size_t k = 1; k < r.methods.size(); ++k)
-    if (r.methods[k].top_primary == r.primary && r.primary > 0) r.also_top.push_back(r.methods[k].method);
-  return r;
-}
-
-std::string recommendation_text(const Recommendation& r) {
-  std::string out;
-  const std::string scope = r.primary_scheme.empty()
-                                ? std::to_string(r.conditions) + " conditions"
-                                : std::to_string(r.primary) + " replay condition" + (r.primary == 1 ? "" : "s") +
-                                      " (masks shaped like the real gaps)";
-  out += "Ranking over the " + scope + ", by " + r.rank_by + " (lower is better)\n";
-  std::vector<std::vector<std::string>> rows;
-  for (std::size_t k = 0; k < r.methods.size(); ++k) {
-    const auto& m = r.methods[k];
-    rows.push_back({std::to_string(k + 1), m.method, short_number(m.mean_rank), short_number(m.rank_metric),
-                    short_number(m.acf_rms), short_number(m.mase_cost),
-                    std::to_string(m.top_primary) + "/" + std::to_string(r.primary) +
-                        (r.primary_scheme.empty() ? "" : " (" + std::to_string(m.top) + "/" + std::to_string(r.conditions) + " all)"),
-                    m.failures ? std::to_string(m.failures) + "/" + std::to_string(m.trials) : "0"});
-  }
-  out += aligned_table({"rank", "method", "mean rank", r.rank_by, "acf_rms", "mase_cost", "best or tied", "failed"}, rows, 2);
-  out += "  (acf_rms: change of the autocorrelation at small lags, lower is better; mase_cost: forecast error added by\n"
-         "   the fill, positive = worse; best or tied: conditions where it is the best or not distinguishable from the\n"
-         "   best at alpha = " + short_number(r.alpha) + ", Holm-adjusted paired tests)\n\n";
-  if (r.methods.empty()) return out + "No recommendation: no method was scored.\n";
-  const auto& best = r.methods.front();
-  out += "Recommendation: " + best.method + "\n";
-  out += "  - lowest mean rank by " + r.rank_by + " over the " + scope + ": " + short_number(best.mean_rank) +
-         " (mean " + r.rank_by + " " + short_number(best.rank_metric) + ")\n";
-  out += "  - best or tied with the best in " + std::to_string(best.top_primary) + " of " + std::to_string(r.primary) +
-         " of those conditions";
-  if (!r.primary_scheme.empty())
-    out += ", " + std::to_string(best.top) + " of " + std::to_string(r.conditions) + " with blocks and random masks too";
-  out += "\n";
-  if (r.also_top.empty()) {
-    out += "  - no other method is best or tied in every one of them\n";
-  } else {
-    std::string names;
-    for (const auto& n : r.also_top) names += (names.empty() ? "" : ", ") + n;
-    out += "  - not distinguishable from it (best or tied in every one of them as well): " + names + "\n";
-  }
-  // Downstream effects, against the best value among the methods.
-  const auto lowest = [&](double MethodStanding::*field, bool absolute) {
-    const MethodStanding* low = nullptr;
-    for (const auto& m : r.methods) {
-      const double v = m.*field;
-      if (!std::isfinite(v)) continue;
-      if (!low || (absolute ? std::abs(v) < std::abs(low->*field) : v < low->*field)) low = &m;
-    }
-    return low;
-  };
-  if (std::isfinite(best.acf_rms)) {
-    const auto* low = lowest(&MethodStanding::acf_rms, false);
-    out += "  - autocorrelation: acf_rms " + short_number(best.acf_rms) +
-           (low && low != &best ? " (lowest: " + low->method + " " + short_number(low->acf_rms) + ")" : " (the lowest)") + "\n";
-  }
-  if (std::isfinite(best.mase_cost)) {
-    const auto* low = lowest(&MethodStanding::mase_cost, false);
-    out += "  - forecast: mase_cost " + short_number(best.mase_cost) +
-           (best.mase_cost > 0 ? " (the holdout forecast is worse after this fill than from the complete series)"
-                               : " (no harm to the holdout forecast seen)") +
-           (low && low != &best ? "; lowest: " + low->method + " " + short_number(low->mase_cost) : "; the lowest") + "\n";
-  } else {
-    out += "  - forecast: mase_cost not available (no holdout, or a series too short for the forecaster)\n";
-  }
-  if (best.failures) out += "  - caution: it failed or left points unfilled in " + std::to_string(best.failures) + " of " +
-                            std::to_string(best.trials) + " trials\n";
-  return out;
 }
 
 }  // namespace gapmark::data

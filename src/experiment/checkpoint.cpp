@@ -82,7 +82,8 @@ json checkpoint_header(const ExperimentSpec& spec, const LoadedData& data, const
             {"series", frame.series},
             {"columns", columns},
             {"rank_by", frame.rank_by},
-            {"alpha", frame.alpha}}}};
+            {"alpha", frame.alpha},
+            {"equivalence", frame.equivalence}}}};
 }
 
 std::string task_line(std::size_t task, const std::vector<TrialRecord>& trials,

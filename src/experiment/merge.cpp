@@ -148,6 +148,7 @@ ResultSet merge_checkpoints(const std::vector<fs::path>& inputs, unsigned thread
   results.columns = columns_from(first.header, names[0]);
   results.rank_by = frame.at("rank_by").get<std::string>();
   results.alpha = frame.at("alpha").get<double>();
+  results.equivalence = frame.value("equivalence", kDefaultEquivalence);  // absent before the margin existed
   std::size_t records = 0;
   for (const auto& s : slots) records += s.size();
   results.trials.reserve(records);
@@ -186,12 +187,11 @@ void write_results_json(std::ostream& out, const ResultSet& results, const Summa
   frame.warnings = results.warnings;
   frame.rank_by = results.rank_by;
   frame.alpha = results.alpha;
+  frame.equivalence = results.equivalence;
   frame.timing = results.timing;
   frame.examples = results.examples;
-  Summary outline;
-  outline.rank_by = summary.rank_by;
-  outline.alpha = summary.alpha;
-  outline.across = summary.across;
+  Summary outline = summary;  // everything but the groups, which are spliced in
+  outline.groups.clear();
   const std::string skeleton = results_to_json(frame, outline).dump(1) + "\n";
 
   const std::size_t groups_at = splice_point(skeleton, "\n  \"groups\": []", splice_point(skeleton, "\n \"summary\": {", 0));

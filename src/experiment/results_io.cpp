@@ -13,17 +13,19 @@ nlohmann::json results_to_json(const ResultSet& results, const Summary& summary)
   nlohmann::json trials = nlohmann::json::array();
   for (const auto& t : results.trials) trials.push_back(trial_to_json(t, results.columns));
   nlohmann::json warnings = nlohmann::json::array();
-  for (const auto& w : results.warnings)
+  for (const auto& w : all_warnings(results, summary))
     warnings.push_back({{"code", w.code}, {"where", w.where}, {"message", w.message}, {"hint", w.hint}});
   nlohmann::json out = {{"format", "gapmark-results"},
           {"schema_version", kResultsSchemaVersion},
           {"context", results.context},
           {"rank_by", results.rank_by},
           {"alpha", results.alpha},
+          {"equivalence", results.equivalence},
           {"series", results.series},
           {"columns", columns},
           {"trials", trials},
           {"summary", summary_to_json(summary, results)},
+          {"verdict", verdict_to_json(summary.verdict)},
           {"warnings", warnings},
           {"timing", results.timing}};
   if (!results.examples.is_null()) out["examples"] = results.examples;
@@ -44,6 +46,9 @@ ResultSet results_from_json(const nlohmann::json& j, const std::string& source) 
     r.series = j.at("series");
     r.rank_by = j.at("rank_by").get<std::string>();
     r.alpha = j.at("alpha").get<double>();
+    r.equivalence = j.value("equivalence", kDefaultEquivalence);
+    if (!(r.equivalence > 0 && r.equivalence < 1))
+      throw InputError(source + ": /equivalence", "expected a number in (0, 1)");
     for (const auto& c : j.at("columns"))
       r.columns.push_back({c.at("name").get<std::string>(), c.at("unit").get<std::string>(),
                            direction_from_string(c.at("direction").get<std::string>()),

@@ -261,6 +261,7 @@ ResultSet results_frame(const ExperimentSpec& spec, const LoadedData& data) {
     for (auto& c : m.impl->columns()) results.columns.push_back(c);
   results.rank_by = spec.rank_by;
   results.alpha = spec.alpha;
+  results.equivalence = spec.equivalence;
   results.series = describe_series(spec, data);
   nlohmann::json inputs = nlohmann::json::array();
   for (std::size_t d = 0; d < spec.data.size(); ++d)

@@ -15,7 +15,7 @@ using nlohmann::json;
 
 const std::set<std::string> kTopLevel = {"name",    "seed",    "replicates", "holdout", "output",
                                          "data",    "schemes", "methods",    "metrics", "rank_by",
-                                         "alpha",   "description"};
+                                         "alpha",   "equivalence", "description"};
 const std::set<std::string> kDataKeys = {"file", "columns", "time_column", "step", "period", "periods", "groups"};
 
 struct Ctx {
@@ -144,6 +144,12 @@ ExperimentSpec parse_spec(const std::string& text, const std::string& source,
     if (!it->is_number() || !(it->get<double>() > 0 && it->get<double>() < 0.5))
       throw InputError(ctx.at("/alpha"), "expected a number in (0, 0.5)");
     spec.alpha = it->get<double>();
+  }
+  if (auto it = j.find("equivalence"); it != j.end()) {
+    if (!it->is_number() || !(it->get<double>() > 0 && it->get<double>() < 1))
+      throw InputError(ctx.at("/equivalence"),
+                       "expected a number in (0, 1): the relative margin on the ranking metric (0.05 = within 5% of the best)");
+    spec.equivalence = it->get<double>();
   }
 
   const auto& data = get_array(require(j, "data", ctx, ""), ctx, "/data");

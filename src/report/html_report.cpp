@@ -122,11 +122,16 @@ std::string how_to_read(const ResultSet& results, const Summary& summary) {
   out += "<p>Methods are ranked by <strong>" + escape(rc.name) + "</strong> (" + escape(rc.summary) + "; " +
          escape(direction_words(rc.direction)) + "). Each cell shows the mean ± standard deviation over the "
          "replicates; the interval is the " + level +
-         "% confidence interval of the mean. A ✓ and a green row mark the methods the paired test could not "
-         "tell apart from the best at α = " + short_number(summary.alpha) +
-         ": on this evidence they are as good as the best. The charts show the five leading methods of each "
+         "% percentile bootstrap interval of the mean. The <em>verdict</em> column gives each method's standing "
+         "against the best of its condition (the lowest mean among the methods that filled every trial): "
+         "<em>equivalent</em> (a green row) when a paired two one-sided test puts it within ±" +
+         short_number(100 * summary.equivalence) + "% of the best's " + escape(rc.name) +
+         "; <em>worse</em> or <em>better</em> when the paired signed-rank test separates them; <em>not "
+         "distinguishable</em> when neither test decides, which is no evidence that they are as good. Both tests "
+         "are Holm-adjusted at α = " + short_number(summary.alpha) + ". A failed or partial trial is the worst "
+         "outcome of its replicate, so a method that failed anywhere is never equivalent. The charts show the five leading methods of each "
          "series, each with its own colour, line pattern and marker; shaded bands and whiskers are the "
-         + level + "% confidence intervals.</p></section>";
+         + level + "% bootstrap intervals.</p></section>";
   return out;
 }
 
@@ -139,68 +144,28 @@ std::string cautions() {
          "review the method and the filled values before use.</aside>";
 }
 
-struct Recommendation {
-  std::vector<std::string> leading;  ///< best or tied in the most conditions
-  std::size_t count = 0, conditions = 0;
-};
-
-Recommendation recommend(const std::vector<const CellGroup*>& groups, const std::vector<std::string>& order) {
-  Recommendation r;
-  r.conditions = groups.size();
-  std::map<std::string, std::size_t> good;
-  for (const auto* g : groups)
-    for (const auto& m : g->methods)
-      if (m.tied_with_best || m.rank == 1) ++good[m.method];
-  for (const auto& [m, n] : good) r.count = std::max(r.count, n);
-  for (const auto& m : order)
-    if (r.count && good[m] == r.count) r.leading.push_back(m);
-  return r;
-}
-
-std::string recommendation_card(const ResultSet& results, const std::vector<const CellGroup*>& groups,
-                                const std::vector<std::string>& order) {
-  const std::size_t rank_col = results.column_index(results.rank_by);
-  const Recommendation r = recommend(groups, order);
+/// The verdict of the series (analysis/verdict.hpp), as the page's card:
+/// the recommendation, the methods shown equally good, reasons and caveats.
+std::string recommendation_card(const Summary& summary, const std::string& series) {
+  const auto* v = verdict_for(summary.verdict, series);
   std::string out = "<div class=\"card recommend\"><p>";
-  if (r.leading.empty()) return out + "No method could be ranked on this series.</p></div>";
-  out += "Recommended on this evidence: <span class=\"best\">" + escape(r.leading.front()) + "</span>";
-  if (r.leading.size() > 1) {
-    out += ", with ";
-    for (std::size_t i = 1; i < r.leading.size(); ++i)
-      out += (i > 1 ? (i + 1 == r.leading.size() ? " and " : ", ") : "") + escape(r.leading[i]);
-    out += " equally placed";
+  if (v == nullptr || v->recommended.empty()) {
+    out += "No method could be ranked on this series.</p>";
+  } else {
+    out += "Recommended on this evidence: <span class=\"best\">" + escape(v->recommended) + "</span>";
+    if (!v->equally_good.empty()) out += "; shown equally good: " + escape(join_words(v->equally_good));
+    out += ".</p>";
   }
-  out += ": best or tied with the best in " + std::to_string(r.count) + " of " + std::to_string(r.conditions) +
-         " condition" + (r.conditions == 1 ? "" : "s") + ".</p><ul>";
-  for (const auto* g : groups) {
-    if (g->methods.empty()) continue;
-    const auto& best = g->methods.front();
-    out += "<li>" + escape(condition(*g)) + ": best <strong>" + escape(best.method) + "</strong> (" +
-           escape(results.rank_by) + " " + escape(short_number(best.metrics[rank_col].mean));
-    if (!interval(best.metrics[rank_col]).empty()) out += ", interval " + escape(interval(best.metrics[rank_col]));
-    out += ")";
-    std::vector<std::string> tied;
-    for (std::size_t i = 1; i < g->methods.size(); ++i)
-      if (g->methods[i].tied_with_best) tied.push_back(g->methods[i].method);
-    if (tied.empty()) {
-      out += "; no other method tied with it";
-    } else {
-      out += "; not distinguishable from it: ";
-      for (std::size_t i = 0; i < tied.size(); ++i) out += (i ? ", " : "") + escape(tied[i]);
-    }
-    out += "</li>";
+  if (v != nullptr && !v->reasons.empty()) {
+    out += "<ul>";
+    for (const auto& r : v->reasons) out += "<li>" + escape(r) + "</li>";
+    out += "</ul>";
   }
-  out += "</ul>";
-  // With n replicates the smallest two-sided p a paired signed-rank test can
-  // reach is 2 / 2^n: below alpha only from some n on.
-  std::size_t fewest = SIZE_MAX;
-  for (const auto* g : groups) fewest = std::min(fewest, g->replicates);
-  std::size_t needed = 1;
-  while (std::ldexp(2.0, -static_cast<int>(needed)) >= results.alpha && needed < 64) ++needed;
-  if (fewest < needed)
-    out += "<p class=\"facts\">With " + std::to_string(fewest) +
-           " replicates the paired test cannot tell any two methods apart at α = " + short_number(results.alpha) +
-           ", so the ties above say little; use at least " + std::to_string(needed) + " replicates.</p>";
+  if (v != nullptr && !v->caveats.empty()) {
+    out += "<ul class=\"caveats\">";
+    for (const auto& c : v->caveats) out += "<li><strong>Caution:</strong> " + escape(c) + "</li>";
+    out += "</ul>";
+  }
   return out + "</div>";
 }
 
@@ -302,19 +267,23 @@ std::string ranked_table(const ResultSet& results, const Summary& summary, const
   if (std::isfinite(g.friedman_p))
     out += "; Friedman test over replicates χ² = " + escape(short_number(g.friedman_statistic)) + ", p = " +
            escape(short_number(g.friedman_p));
+  out += "; equivalence margin ±" + escape(short_number(g.margin)) + " " + escape(results.rank_by);
+  if (g.mask_failed)
+    out += "; " + std::to_string(g.mask_failed) + " replicate(s) could not be masked and are left out";
   out += "</caption><thead><tr><th>rank</th><th class=\"name\">method</th><th>" + escape(results.rank_by) + "</th><th>" +
-         level + "% interval</th><th>tied</th>";
+         level + "% interval</th><th>verdict</th><th>failed</th>";
   for (auto c : others)
     out += "<th title=\"" + escape(results.columns[c].summary) + "\">" + escape(results.columns[c].name) + "</th>";
-  out += "<th>mean rank</th><th>failed</th></tr></thead><tbody>";
+  out += "<th>mean rank</th></tr></thead><tbody>";
   for (const auto& m : g.methods) {
-    out += std::string("<tr") + (m.tied_with_best ? " class=\"tied\"" : "") + "><td>" + std::to_string(m.rank) +
+    const bool good = m.standing == Standing::Best || m.standing == Standing::Equivalent;
+    out += std::string("<tr") + (good ? " class=\"tied\"" : "") + "><td>" + std::to_string(m.rank) +
            "</td><td class=\"name\">" + escape(m.method) + "</td><td>" + metric_cell(m.metrics[rank_col]) +
            "</td><td>" + escape(interval(m.metrics[rank_col])) + "</td><td class=\"mark\">" +
-           (m.tied_with_best ? "✓" : "") + "</td>";
+           escape(standing_name(m.standing)) + "</td><td" + (m.failures ? " class=\"failed\"" : "") + ">" +
+           (m.failures ? std::to_string(m.failures) + "/" + std::to_string(m.trials) : "0") + "</td>";
     for (auto c : others) out += "<td>" + metric_cell(m.metrics[c]) + "</td>";
-    out += "<td>" + escape(short_number(m.mean_rank)) + "</td><td" + (m.failures ? " class=\"failed\"" : "") + ">" +
-           (m.failures ? std::to_string(m.failures) + "/" + std::to_string(m.trials) : "0") + "</td></tr>";
+    out += "<td>" + escape(short_number(m.mean_rank)) + "</td></tr>";
   }
   return out + "</tbody></table></div>";
 }
@@ -385,7 +354,7 @@ std::string series_section(const ResultSet& results, const Summary& summary, con
                (s.value("period", 0) ? std::to_string(s.value("period", 0)) : std::string("none")) + " · starts " +
                escape(s.value("start", std::string())) + "</p>";
   if (groups.empty()) return out + "<p class=\"empty\">No trials for this series.</p></section>";
-  out += recommendation_card(results, groups, order);
+  out += recommendation_card(summary, label);
   out += "<h3>Leading methods</h3>" + legend(shown, styles);
   out += rate_charts(results, groups, shown, styles);
   out += example_section(example_of(results, label), styles);
@@ -420,14 +389,14 @@ std::string across_section(const Summary& summary) {
       out += "<details><summary>Each condition on its own</summary>";
       folded = true;
     }
-    out += "<h3>" + (a.scheme.empty() ? std::string("All conditions pooled") : escape(a.scheme + " at " + percent(a.rate))) +
-           "</h3><p class=\"facts\">" + std::to_string(a.datasets) + " data sets (series × condition) · Friedman χ² = " +
+    out += "<h3>" + (a.scheme.empty() ? std::string("All conditions, one data set per series") : escape(a.scheme + " at " + percent(a.rate))) +
+           "</h3><p class=\"facts\">" + std::to_string(a.datasets) + " series" + (a.scheme.empty() ? " (each series' conditions combined)" : "") + " · Friedman χ² = " +
            escape(short_number(a.friedman_chi2)) + ", p = " + escape(short_number(a.friedman_p)) +
            " · Iman–Davenport F = " + escape(short_number(a.iman_davenport_f)) + ", p = " +
            escape(short_number(a.iman_davenport_p)) + " · critical difference " +
            escape(short_number(a.critical_difference)) + " at α = " + escape(short_number(summary.alpha)) + "</p>";
     out += "<div class=\"figure\">" + svg +
-           "<p class=\"note\">Each row is a method at its mean rank over the data sets (1 = best). Methods joined "
+           "<p class=\"note\">Each row is a method at its mean rank over the series (1 = best). Methods joined "
            "by a bracket on the right differ by less than the critical difference: the test cannot tell them "
            "apart.</p></div>";
   }
@@ -438,11 +407,12 @@ std::string across_section(const Summary& summary) {
   return out + "</section>";
 }
 
-std::string warnings_section(const ResultSet& results) {
+std::string warnings_section(const std::vector<Warning>& warnings, const RunVerdict& verdict) {
   std::string out = "<section id=\"warnings\"><h2>Warnings</h2>";
-  if (results.warnings.empty()) return out + "<p class=\"empty\">None.</p></section>";
+  for (const auto& n : verdict.notes) out += "<p class=\"facts\">" + escape(n) + "</p>";
+  if (warnings.empty()) return out + "<p class=\"empty\">None.</p></section>";
   out += "<ul class=\"warnings\">";
-  for (const auto& w : results.warnings)
+  for (const auto& w : warnings)
     out += "<li><strong>" + escape(w.code) + "</strong> (" + escape(w.where) + "): " + escape(w.message) +
            ". <em>" + escape(w.hint) + ".</em></li>";
   return out + "</ul></section>";
@@ -455,6 +425,7 @@ public:
   std::string render(const ResultSet& results, const Summary& summary) const override {
     const std::string name = results.context.value("spec_name", std::string("experiment"));
     const auto labels = series_labels(results, summary);
+    const auto warnings = all_warnings(results, summary);
     std::string out = "<!DOCTYPE html>\n<html lang=\"en\"><head><meta charset=\"utf-8\">"
                       "<meta name=\"viewport\" content=\"width=device-width, initial-scale=1\">"
                       "<title>gapmark report: " + escape(name) + "</title><style>" + report_css() +
@@ -464,12 +435,12 @@ public:
     for (std::size_t i = 0; i < labels.size(); ++i)
       out += "<a href=\"#" + anchor(i) + "\">" + escape(labels[i]) + "</a>";
     out += "<a href=\"#across\">Across series</a><a href=\"#warnings\">Warnings (" +
-           std::to_string(results.warnings.size()) + ")</a></nav>";
+           std::to_string(warnings.size()) + ")</a></nav>";
     out += cautions();
     out += how_to_read(results, summary);
     for (std::size_t i = 0; i < labels.size(); ++i) out += series_section(results, summary, labels[i], i);
     out += across_section(summary);
-    out += warnings_section(results);
+    out += warnings_section(warnings, summary.verdict);
     out += "<footer>Made by gapmark " + escape(results.context.value("version", std::string("?"))) +
            " from the results of spec " + escape(name) +
            ". This page is self-contained: it loads nothing from elsewhere. methods.md describes the "

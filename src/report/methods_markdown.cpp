@@ -1,11 +1,15 @@
-// methods.md: the experiment described in neutral scientific English, with
-// everything a reviewer needs to rerun it (data, masking, replicates and
-// seed, methods with every parameter, metrics, tests and alpha, the winner
-// per series and condition, the tool version and the spec's SHA-256),
-// followed by the references of the published work it used.
+// methods.md: the experiment described in neutral scientific English for a
+// paper: data, masking, the methods with the parameters that were set,
+// metrics, the statistical analysis with the test variants named, the
+// verdict per series with effect sizes and the equivalence margin, a
+// Limitations paragraph generated from the run, reproducibility facts and
+// the references of the published work it used.
+#include <algorithm>
 #include <cmath>
+#include <map>
 #include <set>
 
+#include "gapmark/analysis/test_names.hpp"
 #include "gapmark/fill/method.hpp"
 #include "gapmark/mask/scheme.hpp"
 #include "gapmark/number_format.hpp"
@@ -13,6 +17,7 @@
 #include "gapmark/report/references.hpp"
 #include "gapmark/report/reporter.hpp"
 #include "gapmark/report/table_text.hpp"
+#include "gapmark/stats/bootstrap.hpp"
 
 namespace gapmark {
 namespace {
@@ -38,7 +43,7 @@ std::vector<std::string> keys_for(const std::vector<CitedUse>& uses, const std::
   return {};
 }
 
-/// "name (a = 1, b = x [default])": every parameter, given or defaulted.
+/// "`name` (a = 1, b = x)": the parameters the spec set, not the defaults.
 template <class Interface>
 std::string with_parameters(const std::string& label) {
   CallSpec call;
@@ -47,18 +52,10 @@ std::string with_parameters(const std::string& label) {
   } catch (const std::exception&) {
     return "`" + label + "`";
   }
-  const auto* entry = Registry<Interface>::global().find(call.name);
   std::string out = "`" + call.name + "`";
-  if (entry == nullptr || entry->params.empty()) return out;
   std::vector<std::string> params;
-  for (const auto& p : entry->params) {
-    std::string value = p.default_value.empty() ? "(none)" : p.default_value;
-    bool given = false;
-    for (const auto& [k, v] : call.args)
-      if (k == p.name) value = v, given = true;
-    params.push_back(p.name + " = " + value + (given ? "" : " (default)"));
-  }
-  return out + " (" + join(params, "and") + ")";
+  for (const auto& [k, v] : call.args) params.push_back(k + " = " + v);
+  return params.empty() ? out : out + " (" + join(params, "and") + ")";
 }
 
 template <class Interface>
@@ -68,15 +65,143 @@ std::string summary_of(const std::string& label) {
   return entry ? entry->summary : "";
 }
 
-std::string best_words(Direction d) {
-  switch (d) {
-    case Direction::Lower: return "lowest";
-    case Direction::Higher: return "highest";
-    case Direction::ZeroBest: return "closest to zero";
-    case Direction::OneBest: return "closest to one";
-    case Direction::None: return "first";
+std::string percent(double share) { return short_number(100 * share) + "%"; }
+
+/// The statistical analysis, with every procedure named as references.cpp knows it.
+std::string analysis_section(const ResultSet& results, const Summary& summary, const std::vector<CitedUse>& uses) {
+  const auto& rc = results.columns[results.column_index(results.rank_by)];
+  const std::string level = short_number(100 * (1 - summary.alpha));
+  std::string out = "\n## Statistical analysis\n\n";
+  out += "For each series, scheme and rate (a condition), each metric was summarised over replicates by its mean, "
+         "standard deviation and the " + level + "% percentile bootstrap interval of the mean (" +
+         std::to_string(stats::kBootstrapResamples) + " resamples, seeded from the condition, method and metric)" +
+         cite(keys_for(uses, "test", test_names::kBootstrapInterval)) +
+         "; the interval describes the variation from mask to mask on these series only. Trials in which a method "
+         "failed or left masked points unfilled were counted, left out of the means and treated as the worst "
+         "outcome of their replicate in every rank and test. Differences of `" + rc.name + "` smaller than " +
+         format_double(kNoiseRelative) + " times the condition's scale (the median of its absolute values) were "
+         "treated as ties, since fills that agree to rounding error differ by far less. Within each replicate "
+         "the methods were ranked by `" + rc.name + "` (ties sharing the average rank). The best method of a "
+         "condition was the one with the " + std::string(rc.direction == Direction::Lower ? "lowest" : "best") +
+         " mean `" + rc.name + "` among those that filled every trial.";
+  out += " Each other method was compared with it on the paired replicates by a two-sided Wilcoxon signed-rank "
+         "test" + cite(keys_for(uses, "test", test_names::kSignedRank)) +
+         " (zero differences dropped; the exact null distribution when at most 50 differences remain with no "
+         "tied magnitudes, otherwise the normal approximation with the tie correction of the variance and no "
+         "continuity correction), and by paired two one-sided tests (TOST) for equivalence" +
+         cite(keys_for(uses, "test", test_names::kEquivalence)) + " with a margin of ±" +
+         percent(summary.equivalence) + " of the best method's mean `" + rc.name + "`";
+  out += "; Holm's correction was applied to each family of k − 1 comparisons. A method was called equivalent when "
+         "the adjusted TOST p-value was below α, worse (or better) when the adjusted signed-rank p-value was, "
+         "and not distinguishable otherwise; a method with a failed trial was never tested for equivalence.";
+  const auto friedman = keys_for(uses, "test", test_names::kFriedman);
+  if (!friedman.empty()) out += " The Friedman test" + cite(friedman) + " assessed whether the methods differed at all.";
+  const auto nemenyi = keys_for(uses, "test", test_names::kNemenyi);
+  if (!nemenyi.empty())
+    out += " Across series, each series was one data set (its conditions combined by averaging the methods' mean "
+           "ranks), and the methods' mean ranks were compared with the Friedman test, the Iman-Davenport "
+           "correction" + cite(keys_for(uses, "test", test_names::kImanDavenport)) +
+           " and the Nemenyi critical difference" + cite(nemenyi) + ".";
+  out += " The significance level was α = " + short_number(summary.alpha) + ".\n";
+  return out;
+}
+
+/// The verdict per series, then each condition's standings with effect sizes.
+std::string results_section(const ResultSet& results, const Summary& summary) {
+  const std::size_t rank_col = results.column_index(results.rank_by);
+  const auto& rc = results.columns[rank_col];
+  const std::string level = short_number(100 * (1 - summary.alpha));
+  std::string out = "\n## Results\n\n";
+  for (const auto& v : summary.verdict.series) {
+    out += "**" + v.series + "**. ";
+    if (v.recommended.empty()) {
+      out += "No method could be ranked.";
+    } else {
+      out += "`" + v.recommended + "` is recommended";
+      if (!v.equally_good.empty()) {
+        std::vector<std::string> names;
+        for (const auto& n : v.equally_good) names.push_back("`" + n + "`");
+        out += "; " + join(names) + (names.size() == 1 ? " was" : " were") + " shown equally good";
+      }
+      out += ".";
+    }
+    for (const auto& r : v.reasons) out += " " + r;
+    for (const auto& c : v.caveats) out += " " + c;
+    out += "\n\n";
+    for (const auto& g : summary.groups) {
+      if (g.series != v.series || g.methods.empty()) continue;
+      const auto& best = g.methods.front();
+      const auto& s = best.metrics[rank_col];
+      out += "- " + g.scheme + ", rate " + format_double(g.rate) + " (" + std::to_string(g.replicates) +
+             " replicates): best `" + best.method + "`, mean " + rc.name + " " + short_number(s.mean);
+      if (std::isfinite(s.ci_low)) out += " (" + level + "% interval " + short_number(s.ci_low) + " to " + short_number(s.ci_high) + ")";
+      out += "; margin ±" + short_number(g.margin) + ".";
+      std::map<Standing, std::vector<std::string>> by;
+      for (std::size_t i = 1; i < g.methods.size(); ++i) {
+        const auto& m = g.methods[i];
+        std::string item = "`" + m.method + "`";
+        if (std::isfinite(m.relative_difference))
+          item += " (" + std::string(m.relative_difference >= 0 ? "+" : "") + percent(m.relative_difference) + ")";
+        if (m.failures) item += " (failed " + std::to_string(m.failures) + " of " + std::to_string(m.trials) + ")";
+        by[m.standing].push_back(item);
+      }
+      for (auto st : {Standing::Better, Standing::Equivalent, Standing::NotDistinguishable, Standing::Worse})
+        if (by.count(st)) out += " " + std::string(standing_name(st)) + ": " + join(by[st]) + ".";
+      if (g.underpowered())
+        out += " With " + std::to_string(g.replicates) + " replicates no difference could be detected (at least " +
+               std::to_string(g.replicates_needed) + " needed).";
+      out += "\n";
+    }
+    out += "\n";
   }
-  return "best";
+  for (const auto& a : summary.across) {
+    if (a.datasets < 2 || a.methods.empty() || !a.scheme.empty()) continue;
+    std::size_t best = 0;
+    for (std::size_t i = 1; i < a.mean_ranks.size(); ++i)
+      if (a.mean_ranks[i] < a.mean_ranks[best]) best = i;
+    out += "Across N = " + std::to_string(a.datasets) + " series, `" + a.methods[best] + "` had the best mean rank (" +
+           short_number(a.mean_ranks[best]) + "); Friedman χ² = " + short_number(a.friedman_chi2) + ", p = " +
+           short_number(a.friedman_p) + "; Iman-Davenport F = " + short_number(a.iman_davenport_f) + ", p = " +
+           short_number(a.iman_davenport_p) + "; critical difference " + short_number(a.critical_difference) + ".\n";
+  }
+  return out;
+}
+
+/// Limitations generated from the run.
+std::string limitations_section(const ResultSet& results, const Summary& summary, double max_rate) {
+  std::string out = "\n## Limitations\n\n";
+  out += "The real gaps of the series were not scored: there is no truth for them, and the masks only imitate them.";
+  if (results.series.is_array()) {
+    std::vector<std::string> shares;
+    for (const auto& s : results.series) {
+      const double points = s.value("points", 0.0), observed = s.value("observed", 0.0);
+      if (points <= 0) continue;
+      const double total = (points - observed + max_rate * observed) / points;
+      if (points - observed > 0) shares.push_back("`" + s.value("label", std::string()) + "` " + percent(total));
+    }
+    if (!shares.empty())
+      out += " The masks came on top of the series' own missing values, so at the highest rate the total missing "
+             "share was " + join(shares) + ".";
+  }
+  out += " The intervals describe the variation from mask to mask on these series only, not the variation to "
+         "expect on other series, other periods or other kinds of gaps.";
+  std::vector<std::string> assumed;
+  const auto& spec = results.context.value("spec", nlohmann::json::object());
+  bool period_given = false;
+  if (spec.is_object() && spec.contains("data") && spec["data"].is_array())
+    for (const auto& d : spec["data"]) period_given = period_given || d.contains("period") || d.contains("periods");
+  if (!period_given && results.series.is_array())
+    for (const auto& s : results.series)
+      if (s.value("period", 0) > 0)
+        assumed.push_back("`" + s.value("label", std::string()) + "` (" + std::to_string(s.value("period", 0)) + ")");
+  if (!assumed.empty())
+    out += " The seasonal period was not set in the spec; the one assumed from the time step was used for " +
+           join(assumed) + ".";
+  out += " The masks hide values without regard to their size; where real values go missing because of what they "
+         "are (detection limits, saturation, outages during extremes), the errors here may understate the real ones.";
+  for (const auto& w : summary.warnings)
+    if (w.code == "under-powered") out += " " + w.message + ".";
+  return out + "\n";
 }
 
 class MethodsMarkdown final : public Reporter {
@@ -88,7 +213,6 @@ public:
     const auto uses = cited_uses(results, summary);
     const std::size_t rank_col = results.column_index(results.rank_by);
     const auto& rc = results.columns[rank_col];
-    const std::string level = short_number(100 * (1 - summary.alpha));
     std::string out = "# Methods\n\n";
 
     // Data.
@@ -119,7 +243,9 @@ public:
     std::vector<std::string> schemes;
     std::vector<std::vector<double>> rates;
     std::vector<std::string> methods;
+    double max_rate = 0;
     for (const auto& t : results.trials) {
+      max_rate = std::max(max_rate, t.rate);
       std::size_t k = 0;
       while (k < schemes.size() && schemes[k] != t.scheme) ++k;
       if (k == schemes.size()) schemes.push_back(t.scheme), rates.emplace_back();
@@ -150,10 +276,13 @@ public:
     if (holdout)
       out += " The last " + std::to_string(holdout) + " points of each series were never hidden; they served as "
              "the forecast holdout.";
+    for (const auto& e : summary.excluded)
+      out += " The condition " + e.scheme + " at rate " + format_double(e.rate) + " of `" + e.series +
+             "` could not be masked (" + e.reason + ") and is left out.";
     out += "\n";
 
     // Methods.
-    out += "\n## Fill methods\n\n";
+    out += "\n## Fill methods\n\nEach method ran with its documented defaults except for the parameters given.\n\n";
     for (const auto& m : methods) {
       const std::string what = summary_of<FillMethod>(m);
       const auto name = m.substr(0, m.find(':'));
@@ -168,72 +297,9 @@ public:
              direction_words(c.direction) + "): " + c.summary + cite(keys_for(uses, "metric", c.name)) + ".\n";
     out += "\nMethods were ranked by `" + rc.name + "` (" + direction_words(rc.direction) + ").\n";
 
-    // Statistics.
-    out += "\n## Statistical analysis\n\n";
-    out += "For each series, scheme and rate, each metric was summarised over replicates by its mean, standard "
-           "deviation and the " + level + "% confidence interval of the mean from Student's t distribution" +
-           cite(keys_for(uses, "test", "Student-t confidence interval")) +
-           ". Trials in which a method failed or left masked points unfilled were counted, excluded from the means "
-           "and ranked last in their replicate, and such methods were ordered after those that filled every trial. "
-           "Within each replicate the methods were ranked by `" + rc.name + "` (ties sharing the average rank); the "
-           "mean of these ranks over replicates is reported beside the means.";
-    const auto vs_best = keys_for(uses, "test", "Wilcoxon signed-rank test against the best, Holm-adjusted");
-    if (!vs_best.empty())
-      out += " Each method was compared with the best one by a two-sided Wilcoxon signed-rank test on the "
-             "paired replicates, with Holm's adjustment for the number of comparisons" + cite(vs_best) +
-             "; methods with an adjusted p-value of at least α were reported as not distinguishable from the best.";
-    const auto friedman = keys_for(uses, "test", "Friedman test");
-    if (!friedman.empty())
-      out += " The Friedman test" + cite(friedman) + " assessed whether the methods differed at all.";
-    const auto nemenyi = keys_for(uses, "test", "Nemenyi critical difference");
-    if (!nemenyi.empty())
-      out += " Across series, the methods' mean ranks over all data sets (series and condition) were compared "
-             "with the Friedman test and the Iman-Davenport correction" +
-             cite(keys_for(uses, "test", "Iman-Davenport test")) +
-             ", followed by the Nemenyi critical difference" + cite(nemenyi) + ".";
-    out += " The significance level was α = " + short_number(summary.alpha) + ".\n";
-
-    // Results.
-    out += "\n## Results\n\n";
-    std::string current;
-    for (const auto& g : summary.groups) {
-      if (g.methods.empty()) continue;
-      if (g.series != current) {
-        current = g.series;
-        out += "\n**" + g.series + "**\n\n";
-      }
-      const auto& best = g.methods.front();
-      const auto& s = best.metrics[rank_col];
-      out += "- " + g.scheme + ", rate " + format_double(g.rate) + ": `" + best.method + "` had the " +
-             best_words(rc.direction) + " mean " + rc.name + ", " + short_number(s.mean);
-      if (std::isfinite(s.ci_low))
-        out += " (" + level + "% CI " + short_number(s.ci_low) + " to " + short_number(s.ci_high) + ")";
-      out += ", over " + std::to_string(s.n) + " replicates";
-      bool tested = false;
-      std::vector<std::string> tied;
-      for (const auto& m : g.methods) {
-        tested = tested || std::isfinite(m.p_vs_best);
-        if (&m != &best && m.tied_with_best) tied.push_back("`" + m.method + "`");
-      }
-      if (!tested)
-        out += "; no paired test against it was available for this condition.\n";
-      else if (tied.empty())
-        out += "; every other method differed from it significantly.\n";
-      else
-        out += "; not distinguishable from it at α = " + short_number(summary.alpha) + ": " + join(tied) + ".\n";
-    }
-    for (const auto& a : summary.across) {
-      if (a.datasets < 2 || a.methods.empty()) continue;
-      std::size_t best = 0;
-      for (std::size_t i = 1; i < a.mean_ranks.size(); ++i)
-        if (a.mean_ranks[i] < a.mean_ranks[best]) best = i;
-      out += "\nAcross " + std::to_string(a.datasets) + " data sets" +
-             (a.scheme.empty() ? std::string() : " (" + a.scheme + ", rate " + format_double(a.rate) + ")") + ", `" +
-             a.methods[best] + "` had the best mean rank (" + short_number(a.mean_ranks[best]) +
-             "); Friedman χ² = " + short_number(a.friedman_chi2) + ", p = " + short_number(a.friedman_p) +
-             "; Iman-Davenport F = " + short_number(a.iman_davenport_f) + ", p = " + short_number(a.iman_davenport_p) +
-             "; critical difference " + short_number(a.critical_difference) + ".\n";
-    }
+    out += analysis_section(results, summary, uses);
+    out += results_section(results, summary);
+    out += limitations_section(results, summary, max_rate);
 
     // Reproducibility.
     out += "\n## Reproducibility\n\n";
@@ -256,7 +322,7 @@ public:
 
 const Registration<Reporter> registration{{
     .name = "methods-md",
-    .summary = "a methods section for a paper: data, masking, methods, metrics, tests, winners, references",
+    .summary = "a methods section for a paper: data, masking, methods, metrics, tests, verdicts, limitations, references",
     .params = {},
     .make = [](const ParamValues&) { return std::make_unique<MethodsMarkdown>(); },
 }};

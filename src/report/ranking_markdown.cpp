@@ -1,5 +1,6 @@
-// ranking.md: per series, for each scheme and rate, the methods ranked by
-// the ranking metric with mean ± sd over replicates of each metric.
+// ranking.md: the verdict per series, then per series, for each scheme and
+// rate, the methods ranked by the ranking metric with mean ± sd over
+// replicates of each metric and each method's standing against the best.
 #include <cmath>
 
 #include "gapmark/number_format.hpp"
@@ -9,6 +10,10 @@
 namespace gapmark {
 namespace {
 
+std::string failures(const MethodSummary& m) {
+  return m.failures ? std::to_string(m.failures) + "/" + std::to_string(m.trials) : "0";
+}
+
 class RankingMarkdown final : public Reporter {
 public:
   std::string file_name() const override { return "ranking.md"; }
@@ -16,18 +21,38 @@ public:
   std::string render(const ResultSet& results, const Summary& summary) const override {
     const std::size_t rank_col = results.column_index(results.rank_by);
     const auto& rc = results.columns[rank_col];
+    const std::string level = short_number(100 * (1 - summary.alpha));
     std::string out = "# Ranked fill methods: " + results.context.value("spec_name", std::string("experiment")) + "\n\n";
-    out += "Methods are ranked by **" + rc.name + "** (" + direction_words(rc.direction) +
-           "). Each cell is the mean ± sd over replicates; the interval is the " +
-           short_number(100 * (1 - summary.alpha)) +
-           "% Student-t confidence interval of the mean. ✓ marks the methods not distinguishable from "
-           "the best at α = " + short_number(summary.alpha) +
-           "; *mean rank* is the average of the within-replicate ranks (1 = best). A trial that left "
-           "masked points unfilled (partial) or failed counts in *failed*, ranks last in its replicate and is "
-           "left out of the means; methods with such trials are listed after those that filled every trial.\n\n";
     out += "Filled values are estimates. A benchmark on synthetic masks can flatter a method when the "
            "real gaps differ; where filled data feed safety decisions, follow the applicable standards "
-           "and have a qualified person review the choice.\n";
+           "and have a qualified person review the choice.\n\n";
+    out += "## Verdict\n\n";
+    for (const auto& v : summary.verdict.series) {
+      out += "**" + v.series + "**: " +
+             (v.recommended.empty() ? std::string("no recommendation") : "recommended `" + v.recommended + "`");
+      if (!v.equally_good.empty()) {
+        std::vector<std::string> names;
+        for (const auto& n : v.equally_good) names.push_back("`" + n + "`");
+        out += "; equally good: " + join_words(names);
+      }
+      out += "\n\n";
+      for (const auto& r : v.reasons) out += "- " + r + "\n";
+      for (const auto& c : v.caveats) out += "- *Caution:* " + c + "\n";
+      out += "\n";
+    }
+    for (const auto& n : summary.verdict.notes) out += "*Note:* " + n + "\n\n";
+
+    out += "## How to read the tables\n\n";
+    out += "Methods are ranked by **" + rc.name + "** (" + direction_words(rc.direction) +
+           "). Each cell is the mean ± sd over replicates; the interval is the " + level +
+           "% percentile bootstrap interval of the mean. *verdict* is each method's standing against the best "
+           "(the lowest mean among the methods that filled every trial): *equivalent* when a paired TOST puts "
+           "it within ±" + short_number(100 * summary.equivalence) + "% of the best's " + rc.name +
+           ", *worse* or *better* when the paired Wilcoxon signed-rank test separates them, *not "
+           "distinguishable* otherwise (both tests Holm-adjusted, α = " + short_number(summary.alpha) +
+           "). *mean rank* is the average of the within-replicate ranks (1 = best). A trial that left "
+           "masked points unfilled (partial) or failed counts in *failed*, is the worst of its replicate in "
+           "every test and is left out of the means; such a method is never equivalent.\n";
     std::string current;
     for (const auto& g : summary.groups) {
       if (g.series != current) {
@@ -36,32 +61,36 @@ public:
       }
       out += "\n### " + g.scheme + " at rate " + format_double(g.rate) + " (" + std::to_string(g.replicates) +
              " replicates)\n\n";
-      std::vector<std::string> header{"rank", "method", rc.name, "interval"};
+      std::vector<std::string> header{"rank", "method", rc.name, "interval", "verdict", "failed"};
       std::vector<std::size_t> shown;
       for (std::size_t c = 0; c < results.columns.size(); ++c)
         if (c != rank_col && results.columns[c].direction != Direction::None) {
           shown.push_back(c);
           header.push_back(results.columns[c].name);
         }
-      header.insert(header.end(), {"mean rank", "tied", "failed"});
+      header.push_back("mean rank");
       std::vector<std::vector<std::string>> rows;
       for (const auto& m : g.methods) {
         std::vector<std::string> row{std::to_string(m.rank), m.method, mean_sd(m.metrics[rank_col]),
-                                     interval(m.metrics[rank_col])};
+                                     interval(m.metrics[rank_col]), standing_name(m.standing), failures(m)};
         for (auto c : shown) row.push_back(mean_sd(m.metrics[c]));
         row.push_back(short_number(m.mean_rank));
-        row.push_back(m.tied_with_best ? "✓" : "");
-        row.push_back(m.failures ? std::to_string(m.failures) + "/" + std::to_string(m.trials) : "0");
         rows.push_back(std::move(row));
       }
       out += markdown_table(header, rows);
       if (std::isfinite(g.friedman_p))
         out += "\nFriedman test over replicates: χ² = " + short_number(g.friedman_statistic) +
-               ", p = " + short_number(g.friedman_p) + ".\n";
+               ", p = " + short_number(g.friedman_p) + ".";
+      out += " Equivalence margin ±" + short_number(g.margin) + " " + rc.name + ".";
+      if (g.mask_failed)
+        out += " " + std::to_string(g.mask_failed) + " replicate" + (g.mask_failed == 1 ? "" : "s") +
+               " could not be masked and " + (g.mask_failed == 1 ? "is" : "are") + " left out.";
+      out += "\n";
     }
-    if (!results.warnings.empty()) {
+    const auto warnings = all_warnings(results, summary);
+    if (!warnings.empty()) {
       out += "\n## Warnings\n\n";
-      for (const auto& w : results.warnings)
+      for (const auto& w : warnings)
         out += "- **" + w.code + "** (" + w.where + "): " + w.message + ". *" + w.hint + ".*\n";
     }
     return out;
@@ -70,7 +99,7 @@ public:
 
 const Registration<Reporter> registration{{
     .name = "ranking-md",
-    .summary = "ranked tables per series, scheme and rate (Markdown)",
+    .summary = "the verdict and ranked tables per series, scheme and rate (Markdown)",
     .params = {},
     .make = [](const ParamValues&) { return std::make_unique<RankingMarkdown>(); },
 }};

@@ -10,6 +10,7 @@
 #include <map>
 #include <set>
 
+#include "gapmark/analysis/test_names.hpp"
 #include "gapmark/params.hpp"
 
 namespace gapmark {
@@ -55,9 +56,15 @@ const std::vector<Reference> kReferences = {
      "  title   = {Strictly Proper Scoring Rules, Prediction, and Estimation},\n"
      "  journal = {Journal of the American Statistical Association},\n  volume  = {102},\n  number  = {477},\n"
      "  pages   = {359--378},\n  year    = {2007},\n  doi     = {10.1198/016214506000001437}\n}\n"},
-    {"student1908", "Student (1908). The probable error of a mean. Biometrika, 6(1), 1-25.",
-     "@article{student1908,\n  author  = {{Student}},\n  title   = {The Probable Error of a Mean},\n  journal = {Biometrika},\n"
-     "  volume  = {6},\n  number  = {1},\n  pages   = {1--25},\n  year    = {1908}\n}\n"},
+    {"efron1993", "Efron, B. and Tibshirani, R. J. (1993). An Introduction to the Bootstrap. Monographs on Statistics and Applied Probability 57. New York: Chapman & Hall.",
+     "@book{efron1993,\n  author    = {Efron, Bradley and Tibshirani, Robert J.},\n  title     = {An Introduction to the Bootstrap},\n"
+     "  series    = {Monographs on Statistics and Applied Probability},\n  volume    = {57},\n  publisher = {Chapman \\& Hall},\n"
+     "  address   = {New York},\n  year      = {1993}\n}\n"},
+    {"schuirmann1987", "Schuirmann, D. J. (1987). A comparison of the two one-sided tests procedure and the power approach for assessing the equivalence of average bioavailability. Journal of Pharmacokinetics and Biopharmaceutics, 15(6), 657-680.",
+     "@article{schuirmann1987,\n  author  = {Schuirmann, Donald J.},\n"
+     "  title   = {A Comparison of the Two One-Sided Tests Procedure and the Power Approach for Assessing the Equivalence of Average Bioavailability},\n"
+     "  journal = {Journal of Pharmacokinetics and Biopharmaceutics},\n  volume  = {15},\n  number  = {6},\n"
+     "  pages   = {657--680},\n  year    = {1987},\n  doi     = {10.1007/BF01068419}\n}\n"},
     {"wilcoxon1945", "Wilcoxon, F. (1945). Individual comparisons by ranking methods. Biometrics Bulletin, 1(6), 80-83.",
      "@article{wilcoxon1945,\n  author  = {Wilcoxon, Frank},\n  title   = {Individual Comparisons by Ranking Methods},\n"
      "  journal = {Biometrics Bulletin},\n  volume  = {1},\n  number  = {6},\n  pages   = {80--83},\n  year    = {1945},\n"
@@ -99,11 +106,12 @@ const std::map<std::string, std::vector<std::string>> kColumnKeys = {
 
 /// Tests and intervals, by the name methods.md gives them.
 const std::map<std::string, std::vector<std::string>> kTestKeys = {
-    {"Student-t confidence interval", {"student1908"}},
-    {"Wilcoxon signed-rank test against the best, Holm-adjusted", {"wilcoxon1945", "holm1979"}},
-    {"Friedman test", {"friedman1937"}},
-    {"Iman-Davenport test", {"iman1980"}},
-    {"Nemenyi critical difference", {"nemenyi1963", "demsar2006"}},
+    {test_names::kBootstrapInterval, {"efron1993"}},
+    {test_names::kSignedRank, {"wilcoxon1945", "holm1979"}},
+    {test_names::kEquivalence, {"schuirmann1987", "holm1979"}},
+    {test_names::kFriedman, {"friedman1937"}},
+    {test_names::kImanDavenport, {"iman1980"}},
+    {test_names::kNemenyi, {"nemenyi1963", "demsar2006"}},
 };
 
 std::string call_name(const std::string& label) {
@@ -154,19 +162,23 @@ std::vector<CitedUse> cited_uses(const ResultSet& results, const Summary& summar
       uses.push_back({"metric", c.name, keys});
     }
   auto test = [&](const std::string& name) { uses.push_back({"test", name, kTestKeys.at(name)}); };
-  bool interval = false, vs_best = false, friedman = false, across = false;
+  bool interval = false, vs_best = false, equivalence = false, friedman = false, across = false;
   for (const auto& g : summary.groups) {
     interval = interval || g.replicates >= 2;
     friedman = friedman || std::isfinite(g.friedman_p);
-    for (const auto& m : g.methods) vs_best = vs_best || std::isfinite(m.p_vs_best);
+    for (const auto& m : g.methods) {
+      vs_best = vs_best || std::isfinite(m.p_vs_best);
+      equivalence = equivalence || std::isfinite(m.p_equivalent);
+    }
   }
   for (const auto& a : summary.across) across = across || (a.datasets >= 2 && std::isfinite(a.critical_difference));
-  if (interval) test("Student-t confidence interval");
-  if (vs_best) test("Wilcoxon signed-rank test against the best, Holm-adjusted");
-  if (friedman || across) test("Friedman test");
+  if (interval) test(test_names::kBootstrapInterval);
+  if (vs_best) test(test_names::kSignedRank);
+  if (equivalence) test(test_names::kEquivalence);
+  if (friedman || across) test(test_names::kFriedman);
   if (across) {
-    test("Iman-Davenport test");
-    test("Nemenyi critical difference");
+    test(test_names::kImanDavenport);
+    test(test_names::kNemenyi);
   }
   return uses;
 }

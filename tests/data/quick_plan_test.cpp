@@ -1,5 +1,5 @@
 // The one-command answer: kinds, default methods, the planned spec (it must
-// parse), and the recommendation read from a summary.
+// parse).
 #include <doctest/doctest.h>
 
 #include <cmath>
@@ -93,45 +93,6 @@ TEST_CASE("the plan: masks at the observed missing share, clamped, and a spec th
   CHECK(plan.spec["data"][0]["period"] == 3);
   CHECK(plan.spec["data"][0]["columns"] == nlohmann::json::array({"x", "y"}));
   CHECK(std::find(plan.methods.begin(), plan.methods.end(), "low-rank") != plan.methods.end());
-}
-
-TEST_CASE("the recommendation: lowest mean rank over the replay conditions, and who else is at the top") {
-  ResultSet results;
-  results.columns = {{"rmse", "value", Direction::Lower, ""}, {"acf_rms", "", Direction::Lower, ""},
-                     {"mase_cost", "", Direction::Lower, ""}};
-  Summary summary;
-  summary.rank_by = "rmse";
-  const auto method = [](std::string name, double rank, bool tied, double rmse, double acf, double mase) {
-    MethodSummary m;
-    m.method = std::move(name);
-    m.mean_rank = rank;
-    m.tied_with_best = tied;
-    m.metrics = {{rmse, 0, 0, 0, 10}, {acf, 0, 0, 0, 10}, {mase, 0, 0, 0, 10}};
-    m.trials = 10;
-    return m;
-  };
-  CellGroup replay1{"x", "replay", 0.1, 10, {method("pchip", 1.4, true, 0.5, 0.02, 0.01), method("linear", 1.8, true, 0.6, 0.01, 0.02),
-                                             method("zero", 3.0, false, 3.0, 0.4, 0.5)}, 0, 0};
-  CellGroup replay2{"y", "replay", 0.1, 10, {method("linear", 1.5, true, 0.4, 0.01, 0.0), method("pchip", 1.6, true, 0.45, 0.03, 0.01),
-                                             method("zero", 2.9, false, 2.0, 0.3, 0.4)}, 0, 0};
-  CellGroup blocks{"x", "blocks", 0.1, 10, {method("zero", 1.0, true, 0.1, 0.1, 0.1), method("pchip", 2.0, false, 0.5, 0.1, 0.1),
-                                            method("linear", 3.0, false, 0.7, 0.1, 0.1)}, 0, 0};
-  summary.groups = {replay1, replay2, blocks};
-  const Recommendation r = recommend(summary, results);
-  CHECK(r.primary == 2);
-  CHECK(r.conditions == 3);
-  REQUIRE(r.methods.size() == 3);
-  CHECK(r.methods[0].method == "pchip");  // (1.4 + 1.6) / 2 = 1.5 < linear's 1.65; blocks not counted
-  CHECK(r.methods[0].mean_rank == doctest::Approx(1.5));
-  CHECK(r.methods[0].rank_metric == doctest::Approx(0.475));
-  CHECK(r.methods[0].top_primary == 2);
-  CHECK(r.methods[2].method == "zero");
-  CHECK(r.methods[2].top == 1);
-  CHECK(r.also_top == std::vector<std::string>{"linear"});
-  const std::string text = recommendation_text(r);
-  CHECK(text.find("Recommendation: pchip") != std::string::npos);
-  CHECK(text.find("not distinguishable from it (best or tied in every one of them as well): linear") != std::string::npos);
-  CHECK(text.find("acf_rms 0.025 (lowest: linear 0.01)") != std::string::npos);
 }
 
 // R's airquality (reference/airquality/export_airquality.R): ozone in whole

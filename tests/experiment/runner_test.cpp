@@ -5,7 +5,7 @@
 
 #include "gapmark/experiment/results_io.hpp"
 #include "gapmark/experiment/runner.hpp"
-#include "gapmark/experiment/summary.hpp"
+#include "gapmark/analysis/summary.hpp"
 #include "gapmark/number_format.hpp"
 #include "test_methods.hpp"
 

@@ -182,11 +182,20 @@ TEST_CASE("methods.md states what a reviewer needs and cites only what was used"
   CHECK(md.find("in 8 replicates") != std::string::npos);
   CHECK(md.find("`chamber_humidity_pct` (cold_store_b.csv): 240 points, 240 observed, regular step PT1H") !=
         std::string::npos);
-  CHECK(md.find("`blocks` (") != std::string::npos);
+  CHECK(md.find("`blocks`") != std::string::npos);
   CHECK(md.find("α = 0.05") != std::string::npos);
-  // Every winner is named with its mean.
+  // Every condition's best is named with its mean, every series' verdict is stated.
   for (const auto& g : run.summary.groups)
-    CHECK(md.find(": `" + g.methods.front().method + "` had the lowest mean rmse") != std::string::npos);
+    CHECK(md.find("best `" + g.methods.front().method + "`, mean rmse") != std::string::npos);
+  for (const auto& v : run.summary.verdict.series)
+    CHECK(md.find("**" + v.series + "**. `" + v.recommended + "` is recommended") != std::string::npos);
+  // The test variants are named, the margin stated, the limitations generated.
+  CHECK(md.find("no continuity correction") != std::string::npos);
+  CHECK(md.find("margin of ±5%") != std::string::npos);
+  CHECK(md.find("## Limitations") != std::string::npos);
+  CHECK(md.find("real gaps of the series were not scored") != std::string::npos);
+  CHECK(md.find("(default)") == std::string::npos);  // parameters as set, no dumps of defaults
+  CHECK(md.find("[schuirmann1987]") != std::string::npos);
   // pchip is cited, methods not in the run are not.
   CHECK(md.find("[fritsch1980] Fritsch") != std::string::npos);
   CHECK(md.find("akima1970") == std::string::npos);

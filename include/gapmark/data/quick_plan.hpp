@@ -1,7 +1,7 @@
 #pragma once
 // The one-command answer: from a variable's profile, a default experiment
 // whose masks mimic the variable's own gaps, a method set chosen by the kind
-// of variable, and a recommendation read from the summary.
+// of variable. The recommendation is the summary's verdict (analysis/verdict.hpp).
 #include <cstddef>
 #include <cstdint>
 #include <nlohmann/json.hpp>
@@ -12,7 +12,6 @@
 
 #include "gapmark/data/profile.hpp"
 #include "gapmark/experiment/record.hpp"
-#include "gapmark/experiment/summary.hpp"
 
 namespace gapmark::data {
 
@@ -80,33 +79,5 @@ struct QuickPlan {
 /// effect (two periods, or a tenth of the series, at most a fifth). The
 /// siblings are data columns too (so low-rank can use them), scored as well.
 QuickPlan plan_quick(const DataProfile& profile, const QuickPlanInput& input);
-
-/// One method's standing over the conditions (series × scheme × rate) of a run.
-struct MethodStanding {
-  std::string method;
-  double mean_rank = 0;        ///< mean of the per-condition mean ranks
-  double rank_metric = 0;      ///< mean over conditions of the ranking metric's mean
-  double acf_rms = 0, mase_cost = 0;  ///< NaN when the run has no such column
-  std::size_t top = 0;         ///< conditions where it is best or tied with the best
-  std::size_t top_primary = 0; ///< the same over the primary (replay) conditions
-  std::size_t failures = 0, trials = 0;
-};
-
-struct Recommendation {
-  std::string rank_by;
-  double alpha = 0.05;
-  std::size_t conditions = 0, primary = 0;  ///< all conditions, and those of the primary scheme
-  std::string primary_scheme;               ///< "replay", or "" when every condition counts
-  std::vector<MethodStanding> methods;      ///< by mean rank over the primary conditions
-  std::vector<std::string> also_top;        ///< others best or tied in every primary condition
-};
-
-/// Reads the summary: primary conditions are the replay ones when there are
-/// any (they mimic the real gaps), else all. Only the series of `column`
-/// count (all when empty).
-Recommendation recommend(const Summary& summary, const ResultSet& results, const std::string& column = "");
-
-/// The ranked table and the recommendation with its reasons, as text.
-std::string recommendation_text(const Recommendation& r);
 
 }  // namespace gapmark::data

@@ -7,7 +7,7 @@
 //   {"format": "gapmark-checkpoint", "version": 1, "spec_sha256": ...,
 //    "shard": {"index": K, "count": N}, "tasks": T (whole grid),
 //    "grid": {"schemes": [{"label", "rates"}], "replicates", "methods"},
-//    "frame": {"context", "series", "columns", "rank_by", "alpha"}}
+//    "frame": {"context", "series", "columns", "rank_by", "alpha", "equivalence"}}
 // Then one line per finished task, in the order they finished:
 //   {"task": i, "trials": [{"status", "reason"?, "masked", "unfilled",
 //                           "seconds", "metrics": [number|null ...]}],

@@ -22,7 +22,7 @@
 #include "gapmark/experiment/record.hpp"
 #include "gapmark/experiment/runner.hpp"
 #include "gapmark/experiment/spec.hpp"
-#include "gapmark/experiment/summary.hpp"
+#include "gapmark/analysis/summary.hpp"
 
 namespace gapmark {
 

@@ -10,7 +10,7 @@
 
 #include "gapmark/experiment/checkpoint.hpp"
 #include "gapmark/experiment/record.hpp"
-#include "gapmark/experiment/summary.hpp"
+#include "gapmark/analysis/summary.hpp"
 
 namespace gapmark {
 

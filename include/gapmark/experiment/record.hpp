@@ -14,6 +14,11 @@ namespace gapmark {
 
 inline constexpr int kResultsSchemaVersion = 1;
 
+/// The default practical equivalence margin: a method whose mean ranking
+/// metric is within 5% of the best's counts as equally good (see
+/// docs/statistics.md for why 5%).
+inline constexpr double kDefaultEquivalence = 0.05;
+
 /// How a trial ended. Written to checkpoints and results.json as the strings
 /// of trial_status_name ("ok", "partial", "failed", "mask-failed").
 enum class TrialStatus {
@@ -63,6 +68,7 @@ struct ResultSet {
   std::vector<Warning> warnings;
   std::string rank_by = "rmse";
   double alpha = 0.05;
+  double equivalence = kDefaultEquivalence;  ///< relative margin on the ranking metric
   nlohmann::json timing;               ///< wall-clock facts; comparisons ignore it
   nlohmann::json examples;             ///< optional example windows (experiment/examples.hpp); null = none
 

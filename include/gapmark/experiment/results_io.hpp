@@ -9,7 +9,7 @@
 #include <nlohmann/json.hpp>
 
 #include "gapmark/experiment/record.hpp"
-#include "gapmark/experiment/summary.hpp"
+#include "gapmark/analysis/summary.hpp"
 
 namespace gapmark {
 

@@ -10,6 +10,7 @@
 #include <string>
 #include <vector>
 
+#include "gapmark/experiment/record.hpp"
 #include "gapmark/fill/method.hpp"
 #include "gapmark/mask/scheme.hpp"
 #include "gapmark/score/metric.hpp"
@@ -54,6 +55,7 @@ struct ExperimentSpec {
   std::vector<Bound<Metric>> metrics;
   std::string rank_by = "rmse";
   double alpha = 0.05;
+  double equivalence = kDefaultEquivalence;  ///< relative margin on the ranking metric, in (0, 1)
 };
 
 /// Reads and checks a spec file. Errors are one line naming the file and the

@@ -6,7 +6,7 @@
 #include <string>
 #include <vector>
 
-#include "gapmark/experiment/summary.hpp"
+#include "gapmark/analysis/summary.hpp"
 #include "gapmark/report/svg.hpp"
 
 namespace gapmark::charts {

@@ -6,7 +6,7 @@
 #include <vector>
 
 #include "gapmark/experiment/record.hpp"
-#include "gapmark/experiment/summary.hpp"
+#include "gapmark/analysis/summary.hpp"
 
 namespace gapmark {
 

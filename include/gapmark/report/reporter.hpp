@@ -5,7 +5,7 @@
 #include <string>
 
 #include "gapmark/experiment/record.hpp"
-#include "gapmark/experiment/summary.hpp"
+#include "gapmark/analysis/summary.hpp"
 #include "gapmark/registry.hpp"
 
 namespace gapmark {

@@ -4,7 +4,7 @@
 #include <string>
 #include <vector>
 
-#include "gapmark/experiment/summary.hpp"
+#include "gapmark/analysis/summary.hpp"
 
 namespace gapmark {
 

@@ -1,0 +1,262 @@
+#include "gapmark/analysis/verdict.hpp"
+
+#include <algorithm>
+#include <cmath>
+#include <map>
+
+#include "gapmark/analysis/summary.hpp"
+#include "gapmark/number_format.hpp"
+#include "gapmark/report/table_text.hpp"
+
+namespace gapmark {
+
+std::string join_words(const std::vector<std::string>& items, const std::string& last) {
+  std::string out;
+  for (std::size_t i = 0; i < items.size(); ++i) {
+    if (i) out += i + 1 == items.size() ? " " + last + " " : ", ";
+    out += items[i];
+  }
+  return out;
+}
+
+namespace {
+
+std::string percent(double share) { return short_number(100 * share) + "%"; }
+
+std::string condition_name(const CellGroup& g) { return g.scheme + " at " + percent(g.rate); }
+
+bool as_good(Standing s) { return s == Standing::Best || s == Standing::Equivalent; }
+
+const MethodSummary* find(const CellGroup& g, const std::string& method) {
+  for (const auto& m : g.methods)
+    if (m.method == method) return &m;
+  return nullptr;
+}
+
+std::string base_name(const std::string& call) { return call.substr(0, call.find(':')); }
+
+/// One method's record over the conditions of a series.
+struct Tally {
+  std::string method;
+  std::size_t top = 0, failures = 0, trials = 0, seen = 0;
+  double rank_sum = 0;
+  double mean_rank() const { return seen ? rank_sum / static_cast<double>(seen) : HUGE_VAL; }
+};
+
+std::vector<Tally> tally(const std::vector<const CellGroup*>& groups) {
+  std::vector<Tally> out;
+  for (const auto* g : groups)
+    for (const auto& m : g->methods) {
+      auto it = std::find_if(out.begin(), out.end(), [&](const Tally& t) { return t.method == m.method; });
+      if (it == out.end()) it = out.insert(out.end(), Tally{m.method});
+      it->top += as_good(m.standing);
+      it->failures += m.failures;
+      it->trials += m.trials;
+      if (std::isfinite(m.mean_rank)) it->rank_sum += m.mean_rank, ++it->seen;
+    }
+  // Most conditions as good as the best first; then the fewest failures;
+  // then the lowest mean rank over the conditions; then first seen.
+  std::stable_sort(out.begin(), out.end(), [](const Tally& a, const Tally& b) {
+    if (a.top != b.top) return a.top > b.top;
+    if ((a.failures == 0) != (b.failures == 0)) return a.failures == 0;
+    return a.mean_rank() < b.mean_rank();
+  });
+  return out;
+}
+
+std::string value_with_interval(const MetricSummary& s, double alpha) {
+  std::string out = short_number(s.mean);
+  if (std::isfinite(s.ci_low))
+    out += " (" + short_number(100 * (1 - alpha)) + "% bootstrap interval " + short_number(s.ci_low) + " to " +
+           short_number(s.ci_high) + ")";
+  return out;
+}
+
+/// How a method stands in one condition, in words.
+std::string standing_words(const CellGroup& g, const MethodSummary& m, const std::string& rank_by) {
+  const auto& best = g.methods.front();
+  if (m.standing == Standing::Best) return "best";
+  std::string out = standing_name(m.standing);
+  if (m.standing == Standing::Equivalent || m.standing == Standing::Better)
+    out += std::string(m.standing == Standing::Better ? " than " : " to ") + best.method;
+  else
+    out += std::string(m.standing == Standing::Worse ? " than " : " from ") + best.method;
+  if (std::isfinite(m.relative_difference))
+    out += ", " + std::string(m.relative_difference >= 0 ? "+" : "") + percent(m.relative_difference) + " " + rank_by;
+  return out;
+}
+
+SeriesVerdict decide_series(const std::string& series, const std::vector<const CellGroup*>& groups,
+                            const Summary& summary, const ResultSet& results) {
+  SeriesVerdict v;
+  v.series = series;
+  v.conditions = groups.size();
+  const auto order = tally(groups);
+  const std::size_t rank_col = results.column_index(summary.rank_by);
+  const Direction direction = results.columns[rank_col].direction;
+  const std::string& rank_by = summary.rank_by;
+  const std::string margin = percent(summary.equivalence);
+  if (order.empty() || order.front().top == 0) {
+    v.caveats.push_back("No method could be ranked on this series.");
+    return v;
+  }
+  const Tally& rec = order.front();
+  v.recommended = rec.method;
+  v.top = rec.top;
+  for (std::size_t i = 1; i < order.size(); ++i) {
+    bool all = order[i].top > 0;
+    for (const auto* g : groups) {
+      const auto* r = find(*g, rec.method);
+      const auto* o = find(*g, order[i].method);
+      if (r && as_good(r->standing) && !(o && as_good(o->standing))) all = false;
+    }
+    if (all) v.equally_good.push_back(order[i].method);
+  }
+
+  // Reasons.
+  v.reasons.push_back("Best, or within the equivalence margin (" + margin + " of the best's " + rank_by +
+                      ", paired TOST), in " + std::to_string(rec.top) + " of " + std::to_string(groups.size()) +
+                      " condition" + (groups.size() == 1 ? "" : "s") + ".");
+  for (const auto* g : groups) {
+    const auto* m = find(*g, rec.method);
+    if (m == nullptr) continue;
+    v.reasons.push_back(condition_name(*g) + ": " + rank_by + " " + value_with_interval(m->metrics[rank_col], summary.alpha) +
+                        ", " + standing_words(*g, *m, rank_by) + " (" + std::to_string(g->replicates) + " replicates).");
+  }
+  if (!v.equally_good.empty())
+    v.reasons.push_back("Shown equally good (best or equivalent wherever it is): " + join_words(v.equally_good) + ".");
+  // The gain over the mean baseline, averaged over the conditions.
+  double gain = 0;
+  std::size_t counted = 0;
+  std::string baseline;
+  for (const auto* g : groups) {
+    const auto* r = find(*g, rec.method);
+    const MethodSummary* b = nullptr;
+    for (const auto& m : g->methods)
+      if (base_name(m.method) == "mean") b = &m;
+    if (!r || !b || b == r) continue;
+    const double x = badness(r->metrics[rank_col].mean, direction), y = badness(b->metrics[rank_col].mean, direction);
+    if (!std::isfinite(x) || !std::isfinite(y) || y == 0) continue;
+    gain += (y - x) / std::abs(y);
+    ++counted;
+    baseline = b->method;
+  }
+  if (counted)
+    v.reasons.push_back(
+        std::string(direction == Direction::Lower ? "Its " + rank_by + " is " : "It is ") +
+        percent(std::abs(gain / static_cast<double>(counted))) +
+        (gain >= 0 ? (direction == Direction::Lower ? " lower" : " better") : (direction == Direction::Lower ? " higher" : " worse")) +
+        " than the `" + baseline + "` baseline's" + (counted > 1 ? " (mean over " + std::to_string(counted) + " conditions)" : "") +
+        ".");
+
+  // Caveats.
+  for (const auto* g : groups) {
+    const auto* m = find(*g, rec.method);
+    if (m && !as_good(m->standing))
+      v.caveats.push_back("In " + condition_name(*g) + " it was " + standing_words(*g, *m, rank_by) + ".");
+    for (const auto& o : g->methods)
+      if (o.standing == Standing::Better)
+        v.caveats.push_back("In " + condition_name(*g) + ", " + o.method + " had the smaller " + rank_by +
+                            " in most replicates (paired signed-rank test) while " + g->methods.front().method +
+                            " had the lower mean; the best is the one with the lowest mean, the statistic the "
+                            "equivalence test uses, and the two disagree when a few replicates weigh heavily.");
+    if (g->underpowered())
+      v.caveats.push_back("In " + condition_name(*g) + ", " + std::to_string(g->replicates) +
+                          " replicates are too few for the paired tests to find any difference among " +
+                          std::to_string(g->methods.size()) + " methods (at least " +
+                          std::to_string(g->replicates_needed) +
+                          " are needed): 'not distinguishable' there is no evidence of equal quality.");
+  }
+  if (rec.failures)
+    v.caveats.push_back("It failed or left masked points unfilled in " + std::to_string(rec.failures) + " of " +
+                        std::to_string(rec.trials) + " trials.");
+  std::vector<std::string> undecided;
+  for (const auto& t : order) {
+    if (t.method == rec.method) continue;
+    bool open = false;
+    for (const auto* g : groups) {
+      const auto* m = find(*g, t.method);
+      open = open || (m && m->standing == Standing::NotDistinguishable && !g->underpowered());
+    }
+    if (open) undecided.push_back(t.method);
+  }
+  if (!undecided.empty())
+    v.caveats.push_back("Neither shown worse than the best nor within the margin in some condition (more replicates "
+                        "would decide): " + join_words(undecided) + ".");
+  return v;
+}
+
+}  // namespace
+
+RunVerdict decide_verdict(const Summary& summary, const ResultSet& results) {
+  RunVerdict verdict;
+  std::vector<std::string> series;
+  if (results.series.is_array())
+    for (const auto& s : results.series) {
+      const std::string label = s.value("label", std::string());
+      if (std::find(series.begin(), series.end(), label) == series.end()) series.push_back(label);
+    }
+  for (const auto& g : summary.groups)
+    if (std::find(series.begin(), series.end(), g.series) == series.end()) series.push_back(g.series);
+  for (const auto& e : summary.excluded)
+    if (std::find(series.begin(), series.end(), e.series) == series.end()) series.push_back(e.series);
+  for (const auto& s : series) {
+    std::vector<const CellGroup*> groups;
+    for (const auto& g : summary.groups)
+      if (g.series == s) groups.push_back(&g);
+    bool any = !groups.empty();
+    for (const auto& e : summary.excluded) any = any || e.series == s;
+    if (any) verdict.series.push_back(decide_series(s, groups, summary, results));
+  }
+  for (const auto& e : summary.excluded)
+    verdict.notes.push_back("Left out of every table, verdict and comparison: " + e.series + ", " + e.scheme + " at " +
+                            percent(e.rate) + " (" + e.reason + ").");
+  for (const auto& a : summary.across)
+    if (a.scheme.empty() && a.datasets >= 2) {
+      verdict.notes.push_back("Across series, each series counts once (its conditions combined first): N = " +
+                              std::to_string(a.datasets) + " series" +
+                              (a.datasets < kFewestSeries ? ", too few for the approximations behind the tests; read "
+                                                            "the mean ranks as descriptive."
+                                                          : "."));
+    }
+  return verdict;
+}
+
+const SeriesVerdict* verdict_for(const RunVerdict& verdict, const std::string& series) {
+  for (const auto& v : verdict.series)
+    if (v.series == series) return &v;
+  return nullptr;
+}
+
+nlohmann::json verdict_to_json(const RunVerdict& verdict) {
+  nlohmann::json series = nlohmann::json::array();
+  for (const auto& v : verdict.series)
+    series.push_back({{"series", v.series},
+                      {"recommended", v.recommended.empty() ? nlohmann::json(nullptr) : nlohmann::json(v.recommended)},
+                      {"equally_good", v.equally_good},
+                      {"conditions", v.conditions},
+                      {"best_or_equivalent_in", v.top},
+                      {"reasons", v.reasons},
+                      {"caveats", v.caveats}});
+  return {{"series", series}, {"notes", verdict.notes}};
+}
+
+std::string recommendation_line(const SeriesVerdict& v) {
+  if (v.recommended.empty()) return "no recommendation";
+  std::string out = "recommended " + v.recommended;
+  if (!v.equally_good.empty()) out += "; equally good: " + join_words(v.equally_good);
+  return out;
+}
+
+std::string verdict_text(const RunVerdict& verdict, const std::string& indent) {
+  std::string out;
+  for (const auto& v : verdict.series) {
+    out += v.series + ": " + recommendation_line(v) + "\n";
+    for (const auto& r : v.reasons) out += indent + "- " + r + "\n";
+    for (const auto& c : v.caveats) out += indent + "- caution: " + c + "\n";
+  }
+  for (const auto& n : verdict.notes) out += "Note: " + n + "\n";
+  return out;
+}
+
+}  // namespace gapmark
