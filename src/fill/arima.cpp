@@ -183,7 +183,7 @@ const Registration<FillMethod> registration{{
                            "grows with the period: about 1 s per fit at 24 and 2,000 points); longer periods are "
                            "searched without a seasonal part"),
                edges_param()},
-    .needs = {.period = false, .siblings = false, .min_observed = 3},
+    .needs = {.period = false, .uses_period = true, .siblings = false, .min_observed = 3},
     .make = [](const ParamValues& p) {
       const bool automatic = p.text("order") == "auto";
       const bool seasonal_auto = p.text("seasonal") == "auto";

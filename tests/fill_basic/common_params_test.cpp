@@ -78,6 +78,9 @@ TEST_CASE("period=N against pandas, and only on methods that use a period") {
   const auto b = MethodRegistry::global().bind(CallSpec::parse("seasonal-mean:period=24", "t"), "t");
   const auto c = MethodRegistry::global().bind(CallSpec::parse("seasonal-mean:period=168", "t"), "t");
   CHECK(a.label == "kalman:model=seasonal,period=4");
+  const auto arima = MethodRegistry::global().bind(CallSpec::parse("arima:order=1,0,0,seasonal=1,0,0,period=4", "t"), "t");
+  CHECK(arima.label == "arima:order=1,0,0,seasonal=1,0,0,period=4");
+  CHECK(method_period(arima, 0) == 4);
   CHECK(b.label != c.label);
   CHECK(method_period(b, 7) == 24);
   const auto d = MethodRegistry::global().bind(CallSpec::parse("seasonal-mean", "t"), "t");
