@@ -96,6 +96,7 @@ std::string task_line(std::size_t task, const std::vector<TrialRecord>& trials,
                 {"seconds", number_or_null(r.seconds)}, {"metrics", std::move(metrics)}};
     if (!r.reason.empty()) rec["reason"] = r.reason;
     if (r.clipped) rec["clipped"] = r.clipped;
+    if (!r.fit.empty()) rec["fit"] = fit_to_json(r.fit);
     t.push_back(std::move(rec));
   }
   json w = json::array();
@@ -207,6 +208,7 @@ StoredTask parse_task(const json& j, const CheckpointGrid& grid, const std::stri
       r.masked = t.at("masked").get<std::size_t>();
       r.unfilled = t.at("unfilled").get<std::size_t>();
       if (auto it = t.find("clipped"); it != t.end()) r.clipped = it->get<std::size_t>();
+      if (auto it = t.find("fit"); it != t.end()) r.fit = fit_from_json(*it, where + ": fit");
       const auto& seconds = t.at("seconds");
       r.seconds = seconds.is_number() ? seconds.get<double>() : std::nan("");
       const auto& metrics = t.at("metrics");

@@ -56,6 +56,7 @@ nlohmann::json trial_to_json(const TrialRecord& t, const std::vector<MetricColum
                         {"unfilled", t.unfilled},
                         {"metrics", metrics}};
   if (t.clipped) out["clipped"] = t.clipped;  // only methods with bounds=LO,HI clip
+  if (!t.fit.empty()) out["fit"] = fit_to_json(t.fit);  // only model-based methods
   return out;
 }
 
@@ -73,6 +74,7 @@ TrialRecord trial_from_json(const nlohmann::json& j, const std::vector<MetricCol
     t.masked = j.at("masked").get<std::size_t>();
     t.unfilled = j.at("unfilled").get<std::size_t>();
     if (j.contains("clipped")) t.clipped = j.at("clipped").get<std::size_t>();
+    if (j.contains("fit")) t.fit = fit_from_json(j.at("fit"), where + "/fit");
     const auto& m = j.at("metrics");
     t.metrics.resize(columns.size(), std::nan(""));
     for (std::size_t i = 0; i < columns.size(); ++i) {

@@ -3,6 +3,7 @@
 #include "gapmark/experiment/examples.hpp"
 
 #include <atomic>
+#include <algorithm>
 #include <chrono>
 #include <cmath>
 #include <exception>
@@ -181,6 +182,9 @@ std::vector<TrialRecord> run_task(const ExperimentSpec& spec, const LoadedData& 
                              "the method changed observed values; they were restored before scoring",
                              "fix the method so that it returns observed values unchanged"});
     rec.clipped = result.clipped;
+    rec.fit = std::move(result.fit);
+    // by name, as results.json and the checkpoint hold them, so a resumed run reads back the same record
+    std::sort(rec.fit.parameters.begin(), rec.fit.parameters.end());
     if (result.clipped)
       add_warning(warnings, {"fills-clipped", method.label,
                              "fills outside the method's bounds were moved to the bound (each trial's \"clipped\" counts them)",

@@ -85,6 +85,7 @@ public:
     const std::size_t search_period = request.period <= max_seasonal_period_ ? request.period : 0;
     const ar::Fit fit = automatic_ ? ar::search_order(x, search_period, bounds_).best : fit_given(request);
     const ar::Smoothed s = ar::smooth_fit(fit, x);
+    result.fit = model_fit(fit);
     for (std::size_t t = 0; t < n; ++t) {
       if (!std::isnan(x[t])) continue;
       const double mean = s.mean[t], var = s.variance[t];
@@ -104,6 +105,26 @@ public:
   }
 
 private:
+  static ModelFit model_fit(const ar::Fit& f) {
+    ModelFit m;
+    m.model = "ARIMA" + f.order.text();
+    auto add = [&](const char* prefix, const std::vector<double>& c) {
+      for (std::size_t i = 0; i < c.size(); ++i) m.parameters.emplace_back(prefix + std::to_string(i + 1), c[i]);
+    };
+    add("ar", f.coefficients.ar);
+    add("ma", f.coefficients.ma);
+    add("seasonal_ar", f.coefficients.seasonal_ar);
+    add("seasonal_ma", f.coefficients.seasonal_ma);
+    if (!f.beta.empty()) m.parameters.emplace_back(f.order.d + f.order.seasonal_d == 0 ? "mean" : "drift", f.beta[0]);
+    m.parameters.emplace_back("sigma2", f.sigma2);
+    m.log_likelihood = f.log_likelihood;
+    m.aicc = f.aicc;
+    m.iterations = f.evaluations;
+    m.converged = f.converged;
+    m.at_bound = f.at_bound;
+    return m;
+  }
+
   /// A variance that is no normal double (data beyond ~1e154 or below
   /// ~1e-154, whose squares overflow or vanish) is given as NaN, as kalman does.
   static double in_data_units(double v) { return v > 0 && !std::isnormal(v) ? kNaN : v; }

@@ -68,6 +68,17 @@ public:
 
     const ss::FitResult fit = ss::fit_variances(model, data.z);
     const ss::SmoothedSignal smooth = ss::smooth_signal(model, data.z, fit.variances);
+    result.fit.model = model.name();
+    const auto names = model.variance_names();
+    for (std::size_t k = 0; k < names.size(); ++k)
+      result.fit.parameters.emplace_back("variance_" + names[k], in_data_units(data.scale, fit.variances[k]));
+    // the likelihood of the data in their own units: the standardised one less n log(scale)
+    result.fit.log_likelihood =
+        fit.log_likelihood - static_cast<double>(smooth.likelihood.effective()) * std::log(data.scale);
+    result.fit.iterations = fit.evaluations;
+    const double n_eff = static_cast<double>(smooth.likelihood.effective()), k = static_cast<double>(names.size());
+    if (n_eff - k - 1 > 0)
+      result.fit.aicc = -2 * result.fit.log_likelihood + 2 * k + 2 * k * (k + 1) / (n_eff - k - 1);
     const double extra = value_variance_ ? fit.variances[0] : 0.0;
     const double s = data.scale;
     for (std::size_t t = 0; t < n; ++t) {

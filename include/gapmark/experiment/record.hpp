@@ -8,6 +8,7 @@
 #include <string>
 #include <vector>
 
+#include "gapmark/fill/model_fit.hpp"
 #include "gapmark/score/metric.hpp"
 
 namespace gapmark {
@@ -46,6 +47,7 @@ struct TrialRecord {
   std::size_t unfilled = 0;  ///< hidden points the method left empty
   std::size_t clipped = 0;   ///< filled points moved into the method's bounds=LO,HI
   std::vector<double> metrics;  ///< one per column; NaN = not applicable
+  ModelFit fit;                 ///< the method's fitted parameters; empty for methods without a model
   double seconds = 0;           ///< wall-clock fill time: kept out of `trials` in results.json
 
   /// "method/series/scheme@rate/replicate": the trial's canonical name.

@@ -13,6 +13,7 @@
 #include <string>
 #include <vector>
 
+#include "gapmark/fill/model_fit.hpp"
 #include "gapmark/registry.hpp"
 #include "gapmark/time_axis.hpp"
 
@@ -34,6 +35,7 @@ struct FillResult {
   std::vector<double> values;    ///< same length as the request; NaN = left unfilled
   std::vector<double> variance;  ///< empty, or one per point (predictive variance)
   std::size_t clipped = 0;       ///< filled points moved into `bounds=LO,HI`
+  ModelFit fit;                  ///< what a model-based method estimated; empty otherwise
 };
 
 class FillMethod {
