@@ -21,7 +21,7 @@ array=$(sbatch --parsable ${SBATCH_OPTIONS:-} --array=1-"$N" --chdir="$OUT" \
 array=${array%%;*}
 # shellcheck disable=SC2086
 merge=$(sbatch --parsable ${SBATCH_OPTIONS:-} --dependency=afterok:"$array" --kill-on-invalid-dep=yes \
-  --chdir="$OUT" --export=ALL,OUT="$OUT",GAPMARK="$GAPMARK" "$HERE/merge.sbatch")
+  --chdir="$OUT" --export=ALL,SPEC="$SPEC",OUT="$OUT",GAPMARK="$GAPMARK" "$HERE/merge.sbatch")
 merge=${merge%%;*}
 echo "shards: job array $array (1-$N); merge: job $merge, after every shard succeeds"
 echo "results: $OUT/merged/results.json"

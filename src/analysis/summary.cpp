@@ -218,6 +218,10 @@ CellGroup summarize_group(const std::string& series, const std::string& scheme, 
   std::stable_sort(order.begin(), order.end(), [&](auto a, auto b) {
     const bool fa = d.methods[a].failures > 0, fb = d.methods[b].failures > 0;
     if (fa != fb) return fb;
+    // A non-finite mean (no value, or one that overflowed) never ranks before a finite one.
+    const auto finiteness = [](double v) { return std::isnan(v) ? 2 : std::isinf(v) ? 1 : 0; };
+    if (finiteness(mean_badness[a]) != finiteness(mean_badness[b]))
+      return finiteness(mean_badness[a]) < finiteness(mean_badness[b]);
     const double sa = or_worst(mean_badness[a]), sb = or_worst(mean_badness[b]);
     if (sa != sb && !(std::abs(sa - sb) <= g.noise)) return sa < sb;
     return d.methods[a].mean_rank < d.methods[b].mean_rank;

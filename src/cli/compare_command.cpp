@@ -34,6 +34,9 @@ void add_compare(CLI::App& app, Action& action) {
       if (!o->tolerance.empty()) tolerances = parse_tolerance_text(o->tolerance, "--tolerance", tolerances);
       const ResultSet baseline = read_results(o->baseline);
       const ResultSet current = read_results(o->current);
+      std::vector<std::string> names;
+      for (const auto& c : baseline.columns) names.push_back(c.name);
+      check_tolerance_metrics(tolerances, names, o->tolerance.empty() ? "--tolerance-file" : "--tolerance");
       const Comparison c = compare_results(baseline, current, tolerances, o->baseline, o->current);
       std::cout << comparison_text(c, o->all ? 0 : 20);
       if (!o->json.empty()) write_file_atomically(o->json, comparison_to_json(c).dump(1) + "\n");

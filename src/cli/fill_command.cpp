@@ -5,6 +5,7 @@
 #include "gapmark/error.hpp"
 #include "gapmark/fill/fill_table.hpp"
 #include "gapmark/wide_write.hpp"
+#include "output_rules.hpp"
 #include "table_options.hpp"
 
 namespace gapmark::cli {
@@ -14,14 +15,18 @@ void add_fill(CLI::App& app, Action& action) {
     TableOptions table;
     std::string method;
     std::string out;
+    bool force = false;
   };
   auto o = std::make_shared<Options>();
   auto* cmd = app.add_subcommand("fill", "Fill the gaps of a CSV with one method; adds a COLUMN_filled flag column per column");
   o->table.declare(*cmd);
   cmd->add_option("--method,-m", o->method, "Method and parameters, e.g. linear or kalman:model=trend")->required();
   cmd->add_option("--out,-o", o->out, "Output CSV")->required();
+  add_force_flag(*cmd, o->force);
   cmd->callback([&action, o] {
     action = [o] {
+      check_output_file(o->out, o->force);
+      check_file_is_no_input(o->out, {o->table.input});
       auto method = MethodRegistry::global().bind(CallSpec::parse(o->method, "--method"), "--method");
       WideTable table = o->table.read();
       auto columns = select_columns(table, o->table.columns);

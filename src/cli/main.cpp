@@ -1,14 +1,19 @@
 // gapmark: benchmark gap-filling methods for time series.
 // The whole program: declare the subcommands, parse, run the chosen one,
 // turn errors into one line on stderr and an exit code.
+#include <csignal>
 #include <iostream>
 
 #include "commands.hpp"
 #include "gapmark/error.hpp"
+#include "gapmark/text_safety.hpp"
 #include "gapmark/version.hpp"
 
 int main(int argc, char** argv) {
   using namespace gapmark::cli;
+  // A write past `ulimit -f` then fails with EFBIG and is reported as the
+  // usual one-line error, instead of the signal ending the program silently.
+  std::signal(SIGXFSZ, SIG_IGN);
   CLI::App app{"gapmark: hides known values in complete time series the way real gaps look, fills them "
                "with every candidate method, scores the fills and ranks the methods."};
   app.set_version_flag("--version", std::string("gapmark ") + gapmark::version() + " (" + gapmark::commit() + ")");
@@ -43,10 +48,12 @@ int main(int argc, char** argv) {
   try {
     return action ? action() : kBadInput;
   } catch (const gapmark::InputError& e) {
-    std::cerr << "gapmark: " << e.what() << "\n";
+    // One printable line, however long or strange the input it echoes (a 10 MB
+    // cell, a NUL byte, bytes that are not UTF-8): escaped, cut after 1000 characters.
+    std::cerr << "gapmark: " << gapmark::printable(e.what(), 1000) << "\n";
     return kBadInput;
   } catch (const std::exception& e) {
-    std::cerr << "gapmark: internal error: " << e.what() << "\n";
+    std::cerr << "gapmark: internal error: " << gapmark::printable(e.what(), 1000) << "\n";
     return kInternal;
   }
 }

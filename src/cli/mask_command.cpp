@@ -7,6 +7,8 @@
 #include "gapmark/mask/mask_table.hpp"
 #include "gapmark/number_format.hpp"
 #include "gapmark/wide_write.hpp"
+#include "number_options.hpp"
+#include "output_rules.hpp"
 #include "table_options.hpp"
 
 namespace gapmark::cli {
@@ -16,6 +18,7 @@ void add_mask(CLI::App& app, Action& action) {
     TableOptions table;
     std::string scheme;
     std::string out;
+    bool force = false;
     std::uint64_t seed = 1;
     int replicate = 0;
     std::size_t holdout = 0;
@@ -26,12 +29,19 @@ void add_mask(CLI::App& app, Action& action) {
   o->table.declare(*cmd);
   cmd->add_option("--scheme,-s", o->scheme, "Scheme and rate, e.g. random:rate=0.2 or blocks:length_mean=12,rate=0.1")->required();
   cmd->add_option("--out,-o", o->out, "Output CSV")->required();
-  cmd->add_option("--seed", o->seed, "Seed; with the same seed `gapmark run` draws the same masks")->capture_default_str();
-  cmd->add_option("--replicate", o->replicate, "Replicate number (0-based), as in an experiment")->capture_default_str();
-  cmd->add_option("--holdout", o->holdout, "Never mask the last N points")->capture_default_str();
+  add_force_flag(*cmd, o->force);
+  cmd->add_option("--seed", o->seed, "Seed; with the same seed `gapmark run` draws the same masks")
+      ->capture_default_str()
+      ->check(whole_number(0, INT64_MAX));
+  cmd->add_option("--replicate", o->replicate, "Replicate number (0-based), as in an experiment")
+      ->capture_default_str()
+      ->check(whole_number(0, 99999));
+  cmd->add_option("--holdout", o->holdout, "Never mask the last N points")->capture_default_str()->check(whole_number(0, 100000000));
   cmd->add_flag("--flags", o->flags, "Add a 0/1 column COLUMN_masked per masked column");
   cmd->callback([&action, o] {
     action = [o] {
+      check_output_file(o->out, o->force);
+      check_file_is_no_input(o->out, {o->table.input});
       CallSpec call = CallSpec::parse(o->scheme, "--scheme");
       auto rate_text = call.take("rate");
       if (!rate_text) throw InputError("--scheme", "give the rate, e.g. " + call.name + ":rate=0.2");

@@ -4,6 +4,7 @@
 #include <iostream>
 
 #include "commands.hpp"
+#include "output_rules.hpp"
 #include "gapmark/data/completeness_svg.hpp"
 #include "gapmark/data/profile.hpp"
 
@@ -16,6 +17,7 @@ void add_profile(CLI::App& app, Action& action) {
     std::string time_column, step, svg;
     std::size_t period = 0;
     bool json = false;
+    bool force = false;
   };
   auto o = std::make_shared<Options>();
   auto* cmd = app.add_subcommand("profile", "Profile raw data: missing records and missing values, duplicates, gap lengths, phases");
@@ -28,8 +30,13 @@ void add_profile(CLI::App& app, Action& action) {
       ->check(CLI::Range(2, 1000000));
   cmd->add_flag("--json", o->json, "Write the profile as JSON on stdout");
   cmd->add_option("--svg", o->svg, "Also draw a completeness picture into this SVG file");
+  add_force_flag(*cmd, o->force);
   cmd->callback([&action, o] {
     action = [o] {
+      if (!o->svg.empty()) {
+        check_output_file(o->svg, o->force);
+        check_file_is_no_input(o->svg, {o->input});
+      }
       data::RawReadOptions read;
       read.time_column = o->time_column;
       read.group_columns = data::split_names(o->group);

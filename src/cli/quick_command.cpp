@@ -9,6 +9,8 @@
 #include <thread>
 
 #include "commands.hpp"
+#include "number_options.hpp"
+#include "output_rules.hpp"
 #include "gapmark/data/quick_plan.hpp"
 #include "gapmark/data/quick_risks.hpp"
 #include "gapmark/data/quick_setup.hpp"
@@ -25,6 +27,7 @@ void add_quick(CLI::App& app, Action& action) {
     data::QuickRequest request;
     std::string out = "gapmark-quick";
     unsigned threads = 0;
+    bool force = false;
   };
   auto o = std::make_shared<Options>();
   auto& r = o->request;
@@ -40,12 +43,16 @@ void add_quick(CLI::App& app, Action& action) {
   cmd->add_option("--period", r.period, "Seasonal period in time steps (default: from the step: 24 for PT1H, 7 for P1D, 12 for P1M ...)")
       ->check(CLI::Range(2, 1000000));
   cmd->add_option("--replicates", r.replicates, "Masks per scheme")->capture_default_str()->check(CLI::Range(1, 100000));
-  cmd->add_option("--seed", r.seed, "Seed of the masks")->capture_default_str();
+  cmd->add_option("--seed", r.seed, "Seed of the masks")->capture_default_str()->check(whole_number(0, INT64_MAX));
   cmd->add_option("--threads,-j", o->threads, "Worker threads (default: all cores)");
+  add_force_flag(*cmd, o->force);
   cmd->callback([&action, o] {
     action = [o] {
       o->request.out = o->out;
+      check_output_folder(o->out);
+      check_folder_holds_no_input(o->out, {o->request.input}, "give another --out");
       const data::QuickSetup setup = data::prepare_quick(o->request);
+      check_output_file(setup.spec_path, o->force);
       write_file_atomically(setup.spec_path, setup.spec_text);
       std::cout << data::quick_plan_text(setup, o->request) << "\n" << std::flush;
 

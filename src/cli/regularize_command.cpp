@@ -5,6 +5,7 @@
 #include <iostream>
 
 #include "commands.hpp"
+#include "output_rules.hpp"
 #include "gapmark/data/regularize.hpp"
 #include "gapmark/error.hpp"
 #include "gapmark/number_format.hpp"
@@ -52,7 +53,7 @@ void add_regularize(CLI::App& app, Action& action) {
       ->check(CLI::IsMember({"shared", "own"}))
       ->capture_default_str();
   cmd->add_option("--utc-offset", o->utc_offset, "Convert times written with offsets to this one (+01:00, Z); times without one are taken as at it");
-  cmd->add_flag("--force", o->force, "Replace OUT if it exists");
+  add_force_flag(*cmd, o->force);
   cmd->footer(
       "Each interval [start, start + step) is labelled by its start. Steps that divide a day start at midnight; P1W and P7D\n"
       "start on Monday 00:00 (ISO 8601 weeks); P1M, P3M, P1Y start on the 1st of the month, quarter, year.\n"
@@ -61,8 +62,8 @@ void add_regularize(CLI::App& app, Action& action) {
       "times written with their offsets can be brought to one offset with --utc-offset.");
   cmd->callback([&action, o] {
     action = [o] {
-      if (!o->force && std::filesystem::exists(o->out))
-        throw InputError(o->out, "exists already; give --force to replace it");
+      check_output_file(o->out, o->force);
+      check_file_is_no_input(o->out, {o->input});
       data::RawReadOptions read;
       read.time_column = o->time_column;
       read.group_columns = data::split_names(o->group);

@@ -15,21 +15,37 @@
 #include "commands.hpp"
 #include "gapmark/error.hpp"
 #include "gapmark/experiment/runner.hpp"
+#include "gapmark/fill/external_program.hpp"
+#include "output_rules.hpp"
 
 namespace gapmark::cli {
 namespace {
 
 std::atomic<bool> g_stop{false};
 std::atomic<int> g_signal{0};
+std::atomic<bool> g_external{false};  // the spec runs outside programs
 static_assert(std::atomic<bool>::is_always_lock_free && std::atomic<int>::is_always_lock_free);
 
 extern "C" void on_stop_signal(int signal) {
   g_signal.store(signal);
   g_stop.store(true);
+  interrupt_external_programs();
+  static const char with_programs[] =
+      "\ngapmark: stopping: no new task starts; outside programs still running are ended now and their tasks left "
+      "for --resume; finished tasks are kept (a second signal quits at once)\n";
+  static const char without[] =
+      "\ngapmark: stopping: no new task starts; the tasks running finish and are kept (a second signal quits at "
+      "once)\n";
+  const bool external = g_external.load();
+  const ssize_t n = ::write(STDERR_FILENO, external ? with_programs : without,
+                            external ? sizeof with_programs - 1 : sizeof without - 1);
+  (void)n;
 }
 
-/// SIGINT (Ctrl-C) and SIGTERM (a batch system's time limit) let the tasks in
-/// flight finish and reach the checkpoint; a second signal kills at once.
+/// SIGINT (Ctrl-C) and SIGTERM (a batch system's time limit) stop the run:
+/// tasks in flight finish and reach the checkpoint, except those waiting on
+/// an outside program, which is ended at once (the task is run again by
+/// --resume); a second signal kills at once.
 void catch_stop_signals() {
   struct sigaction action {};
   action.sa_handler = on_stop_signal;
@@ -121,6 +137,8 @@ void add_run(CLI::App& app, Action& action) {
     unsigned threads = 0;
     std::size_t period = 0;
     bool quiet = false;
+    bool force = false;
+    bool allow_external = false;
     CLI::Option* resume_option = nullptr;
   };
   auto o = std::make_shared<Options>();
@@ -141,9 +159,12 @@ void add_run(CLI::App& app, Action& action) {
                   "(recorded in results.json; a resume must give the same)")
       ->check(CLI::Range(2, 1000000));
   cmd->add_flag("--quiet,-q", o->quiet, "No progress output");
+  add_force_flag(*cmd, o->force);
+  add_consent_flag(*cmd, o->allow_external);
   cmd->callback([&action, o] {
     action = [o] {
       ExperimentSpec spec = load_spec(o->spec);
+      if (refused_external(spec, o->allow_external, "run it")) return kBadInput;
       if (o->period) spec = with_period(spec, o->period);
       const bool resume = o->resume_option->count() > 0;
       if (resume && !o->resume.empty() && !o->out.empty() &&
@@ -151,6 +172,16 @@ void add_run(CLI::App& app, Action& action) {
         throw InputError("--resume", "names folder " + o->resume + " but --out names " + o->out + "; give one");
       if (!o->out.empty()) spec.output = o->out;
       if (resume && !o->resume.empty()) spec.output = o->resume;
+      if (o->out.empty() && o->resume.empty() && !spec_output_problem(spec).empty())
+        throw InputError("", spec_output_problem(spec));
+      std::vector<std::filesystem::path> inputs{o->spec};
+      for (const auto& d : spec.data) inputs.push_back(d.path);
+      check_output_dir(spec.output, inputs, o->force || resume, "give another --out");
+      if (resume && !std::filesystem::exists(spec.output))
+        throw InputError(spec.output.string(), "nothing to resume: no such folder");
+      const OutputDir folder_made(spec.output);
+      const FolderLock lock(spec.output);  // one run per folder, held until the reports are written
+      remove_stale_temp_files(spec.output);
       FolderRunOptions folder{spec.output, resume, std::nullopt, {}};
       if (!o->quiet)
         folder.before_reports = [&spec] {
@@ -162,6 +193,7 @@ void add_run(CLI::App& app, Action& action) {
       options.threads = o->threads ? o->threads : std::max(1u, std::thread::hardware_concurrency());
       options.progress = progress_printer(o->quiet);
       options.stop = &g_stop;
+      g_external.store(!external_commands(spec).empty());
       catch_stop_signals();
       const FolderRunStatus status = run_into_folder(spec, options, folder);
 

@@ -8,9 +8,11 @@
 #include <vector>
 
 #include "gapmark/data/long_layout.hpp"
+#include "gapmark/error.hpp"
 #include "gapmark/data/raw_table.hpp"
 #include "gapmark/table_io.hpp"
 #include "gapmark/wide_write.hpp"
+#include "number_options.hpp"
 
 namespace gapmark::cli {
 
@@ -27,7 +29,8 @@ struct TableOptions {
     cmd.add_option("--column,-c", columns, "A column to work on (repeat; default: every variable column)");
     cmd.add_option("--time-column", time_column, "Name of the time column (default: the first column)");
     cmd.add_option("--step", step, "The time step as an ISO 8601 duration (PT1H, P1D, P1M) or an integer (default: inferred)");
-    cmd.add_option("--period", period, "Seasonal period in steps (default: 24 for hourly, 7 for daily, 12 for monthly ...)");
+    cmd.add_option("--period", period, "Seasonal period in steps (default: 24 for hourly, 7 for daily, 12 for monthly ...)")
+        ->check(whole_number(0, 1000000));
     cmd.add_option("--group", group,
                    "Group columns of a long-layout CSV (COL or COL,COL): each group x variable is worked on as the "
                    "series 'variable[COL=value]'");
@@ -37,6 +40,10 @@ struct TableOptions {
   /// laid side by side; only the --column variables are kept, and `columns`
   /// is then cleared, so every column of the returned table is selected.
   WideTable read() {
+    for (std::size_t i = 0; i < columns.size(); ++i)
+      for (std::size_t k = 0; k < i; ++k)
+        if (columns[i] == columns[k])
+          throw InputError("--column", "'" + columns[i] + "' is given twice; name each column once");
     std::optional<Step> parsed;
     if (!step.empty()) parsed = Step::parse(step, "--step");
     const auto groups = data::split_names(group);

@@ -3,8 +3,10 @@
 #include <algorithm>
 #include <cmath>
 #include <cstdio>
+#include <set>
 
 #include "gapmark/error.hpp"
+#include "gapmark/json_strict.hpp"
 #include "gapmark/number_format.hpp"
 #include "gapmark/table_io.hpp"
 
@@ -55,6 +57,7 @@ double non_negative(const std::string& text, const std::string& where) {
 }  // namespace
 
 Tolerances parse_tolerance_text(const std::string& text, const std::string& where, Tolerances base) {
+  std::set<std::string> given;
   std::size_t start = 0;
   while (start <= text.size()) {
     std::size_t end = text.find(',', start);
@@ -69,6 +72,8 @@ Tolerances parse_tolerance_text(const std::string& text, const std::string& wher
     if (eq == std::string::npos || eq == 0)
       throw InputError(where, "expected metric=amount (e.g. rmse=5% or mae=0.01), found '" + item + "'");
     const std::string metric{trim(std::string_view(item).substr(0, eq))};
+    if (!given.insert(metric).second)
+      throw InputError(where, "the tolerance of '" + metric + "' is given twice; give each metric once");
     std::string amount{trim(std::string_view(item).substr(eq + 1))};
     Tolerance t;
     if (!amount.empty() && amount.back() == '%') {
@@ -87,7 +92,7 @@ Tolerances read_tolerance_file(const std::filesystem::path& path, Tolerances bas
   const std::string source = path.string();
   nlohmann::json j;
   try {
-    j = nlohmann::json::parse(read_text_file(path));
+    j = parse_json_strict(read_text_file(path), source);
   } catch (const nlohmann::json::parse_error& e) {
     throw InputError(source, std::string("invalid JSON: ") + e.what());
   } catch (const nlohmann::json::out_of_range& e) {  // a number too large for a double, such as 1e999
@@ -111,6 +116,16 @@ Tolerances read_tolerance_file(const std::filesystem::path& path, Tolerances bas
     set(base, metric, t);
   }
   return base;
+}
+
+void check_tolerance_metrics(const Tolerances& tolerances, const std::vector<std::string>& columns,
+                             const std::string& where) {
+  for (const auto& [metric, t] : tolerances.per_metric)
+    if (std::find(columns.begin(), columns.end(), metric) == columns.end()) {
+      std::string known;
+      for (const auto& c : columns) known += (known.empty() ? "" : ", ") + c;
+      throw InputError(where, "no metric '" + metric + "' in the results (known: " + known + ")");
+    }
 }
 
 }  // namespace gapmark

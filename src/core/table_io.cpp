@@ -8,10 +8,15 @@
 #include <algorithm>
 #include <cerrno>
 #include <cmath>
+#include <cstdio>
 #include <cstring>
+#include <string_view>
+#include <unordered_map>
 #include <fstream>
 
 #include "gapmark/error.hpp"
+#include "gapmark/output_file.hpp"
+#include "gapmark/text_safety.hpp"
 #include "gapmark/number_format.hpp"
 
 namespace gapmark {
@@ -126,16 +131,36 @@ private:
 };
 
 void check_header(const CsvTable& table, std::size_t line) {
+  std::unordered_map<std::string_view, std::size_t> first_at;  // linear in the number of columns
+  first_at.reserve(table.header.size());
   for (std::size_t c = 0; c < table.header.size(); ++c) {
     if (table.header[c].empty())
       throw InputError(at_line(table.source, line),
                        "column " + std::to_string(c + 1) + " has an empty name");
-    for (std::size_t d = 0; d < c; ++d)
-      if (table.header[d] == table.header[c])
-        throw InputError(at_line(table.source, line),
-                         "duplicate column name '" + table.header[c] + "' (columns " +
-                             std::to_string(d + 1) + " and " + std::to_string(c + 1) + ")");
+    const auto [it, added] = first_at.emplace(table.header[c], c);
+    if (!added)
+      throw InputError(at_line(table.source, line),
+                       "duplicate column name " + quoted_for_message(table.header[c]) + " (columns " +
+                           std::to_string(it->second + 1) + " and " + std::to_string(c + 1) + ")");
   }
+}
+
+/// Refuses text that is not UTF-8, naming the line and column (in bytes)
+/// of the first bad byte.
+void check_utf8(std::string_view text, const std::string& source) {
+  const auto bad = first_invalid_utf8(text);
+  if (!bad) return;
+  std::size_t line = 1, line_start = 0;
+  for (std::size_t i = 0; i < *bad; ++i)
+    if (text[i] == '\n') {
+      ++line;
+      line_start = i + 1;
+    }
+  char byte[8];
+  std::snprintf(byte, sizeof byte, "0x%02X", static_cast<unsigned char>(text[*bad]));
+  throw InputError(at_line(source, line) + ":" + std::to_string(*bad - line_start + 1),
+                   std::string("not UTF-8 text (byte ") + byte +
+                       "); save the file as UTF-8 (a spreadsheet's \"CSV UTF-8\", or iconv -f latin1 -t utf-8)");
 }
 
 }  // namespace
@@ -143,6 +168,7 @@ void check_header(const CsvTable& table, std::size_t line) {
 // ---- CSV ---------------------------------------------------------------------
 
 CsvTable parse_csv(std::string_view text, const std::string& source) {
+  check_utf8(text, source);
   CsvReader reader(text, source);
   std::vector<Record> records;
   while (!reader.done()) records.push_back(reader.next());
@@ -239,8 +265,8 @@ WideTable parse_wide_csv(const CsvTable& csv, const WideReadOptions& options) {
       const std::string where = at_line(csv.source, csv.lines[r]);
       if (trim(cell).empty())
         throw InputError(where, "column '" + table.time_header + "': missing time");
-      throw InputError(where, "column '" + table.time_header + "': not a time: '" + cell +
-                                  "' (expected an integer, YYYY-MM-DD, or YYYY-MM-DDThh:mm[:ss] "
+      throw InputError(where, "column '" + table.time_header + "': not a time: " + quoted_for_message(cell) +
+                                  " (expected an integer within ±10^18, YYYY-MM-DD, or YYYY-MM-DDThh:mm[:ss] "
                                   "with an optional Z or +hh:mm)");
     }
     times.push_back(*time);
@@ -261,7 +287,7 @@ WideTable parse_wide_csv(const CsvTable& csv, const WideReadOptions& options) {
       }
       const auto value = parse_double(cell);
       const std::string where = at_line(csv.source, csv.lines[r]);
-      if (!value) throw InputError(where, "column '" + name + "': not a number: '" + cell + "'");
+      if (!value) throw InputError(where, "column '" + name + "': not a number: " + quoted_for_message(cell));
       if (!std::isfinite(*value))
         throw InputError(where, "column '" + name + "': not a finite number: '" + cell + "'");
       values[r] = *value;
@@ -287,6 +313,9 @@ std::string read_text_file(const std::filesystem::path& path) {
   if (!std::filesystem::exists(status)) throw InputError(path.string(), "no such file");
   if (std::filesystem::is_directory(status))
     throw InputError(path.string(), "is a folder, not a file");
+  // A device or FIFO (/dev/zero, a pipe) could be read without end.
+  if (!std::filesystem::is_regular_file(status))
+    throw InputError(path.string(), "is not a regular file (a device, FIFO or socket); give a file");
   std::ifstream in(path, std::ios::binary);
   if (!in) throw InputError(path.string(), std::string("cannot open: ") + std::strerror(errno));
   std::string content;
@@ -298,41 +327,9 @@ std::string read_text_file(const std::filesystem::path& path) {
 }
 
 void write_file_atomically(const std::filesystem::path& path, const std::string& content) {
-  const std::string where = path.string();
-  const std::filesystem::path parent = path.parent_path();
-  if (!parent.empty()) {
-    std::error_code ec;
-    std::filesystem::create_directories(parent, ec);
-    if (ec) throw InputError(where, "cannot create folder " + parent.string() + ": " + ec.message());
-  }
-  std::filesystem::path temp = path;
-  temp += ".tmp-" + std::to_string(::getpid());
-
-  const auto fail = [&](const std::string& what, int error) {
-    ::unlink(temp.c_str());
-    throw InputError(where, what + ": " + std::strerror(error));
-  };
-  const int fd = ::open(temp.c_str(), O_WRONLY | O_CREAT | O_TRUNC | O_CLOEXEC, 0666);
-  if (fd < 0) throw InputError(where, std::string("cannot write: ") + std::strerror(errno));
-  std::size_t written = 0;
-  while (written < content.size()) {
-    const ssize_t n = ::write(fd, content.data() + written, content.size() - written);
-    if (n < 0) {
-      if (errno == EINTR) continue;
-      const int error = errno;
-      ::close(fd);
-      fail("cannot write", error);
-    }
-    written += static_cast<std::size_t>(n);
-  }
-  // Flush to disk where the file system supports it; some do not (EINVAL).
-  if (::fsync(fd) != 0 && errno != EINVAL && errno != EROFS) {
-    const int error = errno;
-    ::close(fd);
-    fail("cannot write", error);
-  }
-  if (::close(fd) != 0) fail("cannot write", errno);
-  if (std::rename(temp.c_str(), path.c_str()) != 0) fail("cannot replace the file", errno);
+  TempFile temp(path);
+  temp.write(content);
+  temp.commit();
 }
 
 }  // namespace gapmark

@@ -96,6 +96,9 @@ std::optional<TimePoint> parse_integer_time(std::string_view s) {
     if (value > (std::numeric_limits<std::int64_t>::max() - d) / 10) return std::nullopt;
     value = value * 10 + d;
   }
+  // Integer times are kept within ±10^18, so that differences between them
+  // and steps across them cannot overflow.
+  if (value > 1'000'000'000'000'000'000) return std::nullopt;
   return TimePoint{TimeKind::Index, negative ? -value : value, std::nullopt, false};
 }
 
@@ -180,6 +183,11 @@ std::string format_offset(int minutes, bool utc_z) {
 std::string format_dated(TimeKind kind, std::int64_t value, std::optional<int> offset,
                          bool utc_z, bool show_seconds) {
   const Civil c = to_civil(value);
+  // gapmark reads four-digit years only, so it writes no other: a time moved
+  // out of 0001-9999 (by an offset, or a step past the end) is refused.
+  if (c.year < 1 || c.year > 9999)
+    throw InputError("time", "a time in the year " + std::to_string(c.year) +
+                                 " cannot be written: times must stay within the years 0001-9999");
   char date_text[32];
   std::snprintf(date_text, sizeof date_text, "%04d-%02u-%02u", c.year, c.month, c.day);
   std::string out = date_text;

@@ -8,6 +8,7 @@
 #include "gapmark/data/raw_table.hpp"
 #include "gapmark/data/time_grid.hpp"
 #include "gapmark/error.hpp"
+#include "gapmark/text_safety.hpp"
 #include "gapmark/number_format.hpp"
 
 namespace gapmark::data {
@@ -60,7 +61,7 @@ std::vector<double> numbers(const RawData& raw, std::size_t v, const std::vector
       continue;
     }
     const auto x = parse_double(cell);
-    if (!x) throw InputError(raw.where(r), "column '" + raw.value_columns[v] + "': not a number: '" + cell + "'");
+    if (!x) throw InputError(raw.where(r), "column '" + raw.value_columns[v] + "': not a number: " + quoted_for_message(cell));
     if (!std::isfinite(*x))
       throw InputError(raw.where(r), "column '" + raw.value_columns[v] + "': not a finite number: '" + cell + "'");
     out.push_back(*x);

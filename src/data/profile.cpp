@@ -120,7 +120,10 @@ GroupGrid lay_out_group(const RawData& raw, const RawGroup& group, std::size_t g
   AxisStyle style;
   style.utc_z = raw.utc_z;
   style.month_day = month_day;
-  p.grid = TimeAxis(raw.kind, step, start, static_cast<std::size_t>(hi - lo + 1), raw.offset_minutes, style);
+  std::int64_t points = -1;
+  if (!__builtin_sub_overflow(hi, lo, &points) && points < INT64_MAX) ++points;
+  check_grid_size(points, step, raw.source);
+  p.grid = TimeAxis(raw.kind, step, start, static_cast<std::size_t>(points), raw.offset_minutes, style);
   out.slot_rows.assign(p.grid.size(), {});
   for (std::size_t r : group.rows) {
     auto it = offset_of.find(raw.times[r]);

@@ -108,13 +108,24 @@ std::int64_t Binning::floor(std::int64_t t) const {
   return anchor_ + floor_div(t - anchor_, step_.amount) * step_.amount;
 }
 
+void check_grid_size(std::int64_t points, const Step& step, const std::string& where) {
+  if (points >= 0 && points <= kMaxGridPoints) return;
+  throw InputError(where, "a regular grid over these times at step " + step.iso() + " would have " +
+                              (points < 0 ? std::string("more than 9.2e18") : std::to_string(points)) +
+                              " points, more than the limit of " + std::to_string(kMaxGridPoints) +
+                              " per series; give a coarser step, or leave out the rows with far-off times");
+}
+
 TimeAxis Binning::axis(std::int64_t lo, std::int64_t hi, std::optional<int> offset_minutes, bool utc_z) const {
   const std::int64_t start = floor(lo), end = floor(hi);
-  std::int64_t count = 0;
+  std::int64_t count = 0, span = 0;
   if (step_.unit == Step::Unit::Months)
     count = (month_number(end) - month_number(start)) / step_.amount + 1;
+  else if (__builtin_sub_overflow(end, start, &span))
+    count = -1;
   else
-    count = (end - start) / step_.amount + 1;
+    count = span / step_.amount + 1;
+  check_grid_size(count, step_, "--step");
   AxisStyle style;
   style.utc_z = utc_z;
   if (step_.unit == Step::Unit::Months) style.month_day = 1;

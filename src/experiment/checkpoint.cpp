@@ -1,6 +1,7 @@
 #include "gapmark/experiment/checkpoint.hpp"
 
 #include <fcntl.h>
+#include <sys/stat.h>
 #include <unistd.h>
 
 #include <cerrno>
@@ -11,6 +12,7 @@
 #include <unordered_set>
 
 #include "gapmark/error.hpp"
+#include "gapmark/experiment/record_checks.hpp"
 
 namespace gapmark {
 namespace {
@@ -35,8 +37,19 @@ int open_or_fail(const std::filesystem::path& path, int flags) {
     std::filesystem::create_directories(parent, ec);
     if (ec) throw InputError(path.string(), "cannot create folder " + parent.string() + ": " + ec.message());
   }
-  const int fd = ::open(path.c_str(), flags | O_CLOEXEC, 0666);
+  // Never through a symbolic link (one planted or carried by git would
+  // redirect the truncation), and only into a regular file.
+  // O_NONBLOCK: a FIFO at the name must not block the open.
+  const int fd = ::open(path.c_str(), flags | O_NOFOLLOW | O_NONBLOCK | O_CLOEXEC, 0666);
+  if (fd < 0 && errno == ELOOP)
+    throw InputError(path.string(), "is a symbolic link; gapmark never writes through a link (remove it)");
   if (fd < 0) fail(path, "cannot write the checkpoint", errno);
+  struct stat st {};
+  if (::fstat(fd, &st) != 0 || !S_ISREG(st.st_mode)) {
+    ::close(fd);
+    throw InputError(path.string(), "is not a regular file; gapmark writes only regular files");
+  }
+  ::fcntl(fd, F_SETFL, ::fcntl(fd, F_GETFL) & ~O_NONBLOCK);
   return fd;
 }
 
@@ -192,12 +205,12 @@ namespace {
 StoredTask parse_task(const json& j, const CheckpointGrid& grid, const std::string& where) {
   StoredTask out;
   try {
-    out.task = j.at("task").get<std::size_t>();
+    out.task = stored_count(j.at("task"), where, "task");
     if (out.task >= grid.tasks())
       throw InputError(where, "task " + std::to_string(out.task) + " is outside the grid of " +
                                   std::to_string(grid.tasks()) + " tasks");
     const auto& trials = j.at("trials");
-    if (trials.size() != grid.methods())
+    if (!trials.is_array() || trials.size() != grid.methods())
       throw InputError(where, std::to_string(trials.size()) + " trials for " + std::to_string(grid.methods()) +
                                   " methods");
     for (std::size_t m = 0; m < trials.size(); ++m) {
@@ -205,18 +218,19 @@ StoredTask parse_task(const json& j, const CheckpointGrid& grid, const std::stri
       TrialRecord r = grid.blank(out.task, m);
       r.status = parse_trial_status(t.at("status").get<std::string>(), where);
       if (auto it = t.find("reason"); it != t.end()) r.reason = it->get<std::string>();
-      r.masked = t.at("masked").get<std::size_t>();
-      r.unfilled = t.at("unfilled").get<std::size_t>();
-      if (auto it = t.find("clipped"); it != t.end()) r.clipped = it->get<std::size_t>();
+      r.masked = stored_count(t.at("masked"), where, "masked");
+      r.unfilled = stored_count(t.at("unfilled"), where, "unfilled");
+      if (auto it = t.find("clipped"); it != t.end()) r.clipped = stored_count(*it, where, "clipped");
+      if (r.unfilled > r.masked) throw InputError(where, "more points unfilled than masked");
       if (auto it = t.find("fit"); it != t.end()) r.fit = fit_from_json(*it, where + ": fit");
-      const auto& seconds = t.at("seconds");
-      r.seconds = seconds.is_number() ? seconds.get<double>() : std::nan("");
+      r.seconds = stored_metric(t.at("seconds"), where, "seconds");
+      if (r.seconds < 0) throw InputError(where, "seconds: expected a number >= 0 or null");
       const auto& metrics = t.at("metrics");
-      if (metrics.size() != grid.columns())
+      if (!metrics.is_array() || metrics.size() != grid.columns())
         throw InputError(where, std::to_string(metrics.size()) + " metric values for " +
                                     std::to_string(grid.columns()) + " columns");
       r.metrics.reserve(metrics.size());
-      for (const auto& v : metrics) r.metrics.push_back(v.is_number() ? v.get<double>() : std::nan(""));
+      for (const auto& v : metrics) r.metrics.push_back(stored_metric(v, where, "metrics"));
       out.trials.push_back(std::move(r));
     }
     for (const auto& w : j.at("warnings"))
@@ -260,6 +274,9 @@ CheckpointScan parse_header(const std::filesystem::path& path, std::istream& in,
 }
 
 std::ifstream open_checkpoint(const std::filesystem::path& path) {
+  std::error_code ec;
+  if (std::filesystem::exists(path, ec) && !std::filesystem::is_regular_file(path, ec))
+    throw InputError(path.string(), "is not a regular file (a folder, device or FIFO); not a checkpoint");
   std::ifstream in(path, std::ios::binary);
   if (!in) throw InputError(path.string(), "no checkpoint here (cannot read it)");
   return in;

@@ -127,6 +127,13 @@ nlohmann::json example_for(const ExperimentSpec& spec, const LoadedData& data, c
       if (m.label == ms.method) method = &m;
     if (method == nullptr) continue;
     nlohmann::json entry = {{"method", ms.method}, {"rank", ms.rank}};
+    if (method->entry->name == "external" && !options.allow_external) {
+      entry["status"] = "not run";
+      entry["reason"] = "an outside program is not started again without --allow-external";
+      entry["filled"] = nullptr;
+      methods.push_back(entry);
+      continue;
+    }
     std::vector<double> filled;
     try {
       check_needs(method->entry->needs, fill_request);

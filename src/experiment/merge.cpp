@@ -17,6 +17,9 @@
 #include <unordered_set>
 
 #include "gapmark/error.hpp"
+#include "gapmark/output_file.hpp"
+#include "gapmark/experiment/spec_safety.hpp"
+#include "gapmark/experiment/record_checks.hpp"
 #include "gapmark/experiment/results_io.hpp"
 #include "gapmark/report/reporter.hpp"
 #include "gapmark/table_io.hpp"
@@ -86,7 +89,7 @@ std::size_t splice_point(const std::string& skeleton, const std::string& marker,
 
 }  // namespace
 
-ResultSet merge_checkpoints(const std::vector<fs::path>& inputs, unsigned threads) {
+ResultSet merge_checkpoints(const std::vector<fs::path>& inputs, const MergeOptions& options) {
   if (inputs.empty()) throw InputError("merge", "no run or shard folders given");
   std::vector<std::string> names;
   std::vector<CheckpointScan> heads;
@@ -99,6 +102,10 @@ ResultSet merge_checkpoints(const std::vector<fs::path>& inputs, unsigned thread
     heads.push_back(read_checkpoint_header(path));
   }
   const CheckpointScan& first = heads.front();
+  if (options.spec && options.spec->sha256 != first.spec_sha256)
+    throw InputError(options.spec->source, "is not the spec of " + names[0] + " (spec SHA-256 " +
+                                               short_hash(options.spec->sha256) + "..., the run's " +
+                                               short_hash(first.spec_sha256) + "...)");
   const json identity = run_identity(first.header);
   for (std::size_t i = 1; i < heads.size(); ++i) {
     const CheckpointScan& h = heads[i];
@@ -142,13 +149,17 @@ ResultSet merge_checkpoints(const std::vector<fs::path>& inputs, unsigned thread
   }
 
   ResultSet results;
-  const json& frame = first.header.at("frame");
-  results.context = frame.at("context");
-  results.series = frame.at("series");
-  results.columns = columns_from(first.header, names[0]);
-  results.rank_by = frame.at("rank_by").get<std::string>();
-  results.alpha = frame.at("alpha").get<double>();
-  results.equivalence = frame.value("equivalence", kDefaultEquivalence);  // absent before the margin existed
+  try {
+    const json& frame = first.header.at("frame");
+    results.context = frame.at("context");
+    results.series = frame.at("series");
+    results.columns = columns_from(first.header, names[0]);
+    results.rank_by = frame.at("rank_by").get<std::string>();
+    results.alpha = stored_alpha(frame.at("alpha"), checkpoint_path(inputs[0]).string() + ":1: /frame");
+    results.equivalence = frame.value("equivalence", kDefaultEquivalence);  // absent before the margin existed
+  } catch (const json::exception& e) {
+    throw InputError(checkpoint_path(inputs[0]).string() + ":1", std::string("malformed checkpoint header: ") + e.what());
+  }
   std::size_t records = 0;
   for (const auto& s : slots) records += s.size();
   results.trials.reserve(records);
@@ -167,13 +178,20 @@ ResultSet merge_checkpoints(const std::vector<fs::path>& inputs, unsigned thread
   json per_method = json::object();
   for (const auto& [m, s] : method_seconds) per_method[m] = s;
   results.timing = {{"fill_seconds_by_method", per_method}, {"checkpoints", heads.size()}};
-  // Example windows need the data again: re-read from the folder the spec
-  // was in when the run started (a single run and a merge do the same).
-  const std::string spec_dir = first.header.value("spec_dir", "");
-  const std::string why_not = attach_examples(results, spec_dir, ExampleOptions{.threads = threads});
+  // Example windows need the data again: read from the folder of the spec
+  // the user named (never from a folder a checkpoint records).
+  std::string why_not = "no spec given (gapmark merge --spec SPEC reads the data again from the spec's folder)";
+  if (options.spec)
+    why_not = attach_examples(results, *options.spec,
+                              ExampleOptions{.threads = options.threads, .allow_external = options.allow_external});
   if (!why_not.empty())
     results.warnings.push_back({"no-examples", "report", "no example windows in the report: " + why_not,
-                                "run the merge where the data files of the run can be read"});
+                                "give the run's spec with --spec, where its data files can be read"});
+  else if (!options.allow_external && !external_commands(*options.spec).empty())
+    results.warnings.push_back({"examples-without-external", "report",
+                                "the example windows leave out the external methods: no outside program is "
+                                "started again without --allow-external",
+                                "add --allow-external to draw them"});
   return results;
 }
 
@@ -235,36 +253,13 @@ void write_results_json(std::ostream& out, const ResultSet& results, const Summa
 
 namespace {
 
-/// Writes a file through a temporary name beside `path`: `write` fills the
-/// stream; the data are flushed to disk. Returns the temporary name, to be
-/// renamed once every file of the set is written. Errors name `path`.
+/// Writes a file through a temporary name beside `path` (TempFile): `write`
+/// fills the stream; the data are flushed to disk. Returns the temporary
+/// name, to be renamed once every file of the set is written. Errors name `path`.
 fs::path write_temp(const fs::path& path, const std::function<void(std::ostream&)>& write) {
-  fs::path temp = path;
-  temp += ".tmp-" + std::to_string(::getpid());
-  const auto fail = [&](const std::string& what) {
-    const int error = errno;
-    std::error_code ec;
-    fs::remove(temp, ec);
-    throw InputError(path.string(), what + (error ? std::string(": ") + std::strerror(error) : std::string()));
-  };
-  {
-    std::ofstream out(temp, std::ios::binary | std::ios::trunc);
-    if (!out) fail("cannot write");
-    std::vector<char> buffer(1 << 20);
-    out.rdbuf()->pubsetbuf(buffer.data(), static_cast<std::streamsize>(buffer.size()));
-    errno = 0;
-    write(out);
-    out.flush();
-    if (!out) fail("cannot write");
-  }
-  const int fd = ::open(temp.c_str(), O_RDONLY | O_CLOEXEC);
-  if (fd < 0) fail("cannot reopen to flush");
-  if (::fsync(fd) != 0 && errno != EINVAL && errno != EROFS) {
-    ::close(fd);
-    fail("cannot flush");
-  }
-  ::close(fd);
-  return temp;
+  TempFile temp(path);
+  temp.write_with(write);
+  return temp.release();
 }
 
 }  // namespace
@@ -312,11 +307,11 @@ std::vector<std::string> write_final_reports(const ResultSet& results, const fs:
   }
   std::vector<std::string> written;
   for (std::size_t i = 0; i < staged.size(); ++i) {
-    fs::rename(staged[i].first, staged[i].second, ec);
-    if (ec) {
-      const std::string why = ec.message();
+    try {
+      rename_over(staged[i].first, staged[i].second);
+    } catch (...) {
       for (std::size_t k = i; k < staged.size(); ++k) fs::remove(staged[k].first, ec);
-      throw InputError(staged[i].second.string(), "cannot write: " + why);
+      throw;
     }
     written.push_back(staged[i].second.string());
   }

@@ -3,6 +3,7 @@
 #include <cmath>
 
 #include "gapmark/error.hpp"
+#include "gapmark/experiment/record_checks.hpp"
 #include "gapmark/number_format.hpp"
 
 namespace gapmark {
@@ -71,15 +72,19 @@ TrialRecord trial_from_json(const nlohmann::json& j, const std::vector<MetricCol
     t.method = j.at("method").get<std::string>();
     t.status = parse_trial_status(j.at("status").get<std::string>(), where);
     if (!j.at("reason").is_null()) t.reason = j.at("reason").get<std::string>();
-    t.masked = j.at("masked").get<std::size_t>();
-    t.unfilled = j.at("unfilled").get<std::size_t>();
-    if (j.contains("clipped")) t.clipped = j.at("clipped").get<std::size_t>();
+    t.masked = stored_count(j.at("masked"), where, "masked");
+    t.unfilled = stored_count(j.at("unfilled"), where, "unfilled");
+    if (j.contains("clipped")) t.clipped = stored_count(j.at("clipped"), where, "clipped");
+    if (t.unfilled > t.masked) throw InputError(where, "more points unfilled than masked");
+    if (!(t.rate >= 0 && t.rate <= 1)) throw InputError(where, "rate: expected a number in [0, 1]");
+    if (t.replicate < 0) throw InputError(where, "replicate: expected a whole number >= 0");
     if (j.contains("fit")) t.fit = fit_from_json(j.at("fit"), where + "/fit");
     const auto& m = j.at("metrics");
+    if (!m.is_object()) throw InputError(where, "metrics: expected an object");
     t.metrics.resize(columns.size(), std::nan(""));
     for (std::size_t i = 0; i < columns.size(); ++i) {
       auto it = m.find(columns[i].name);
-      if (it != m.end() && it->is_number()) t.metrics[i] = it->get<double>();
+      if (it != m.end()) t.metrics[i] = stored_metric(*it, where, "metrics/" + columns[i].name);
     }
   } catch (const nlohmann::json::exception& e) {
     throw InputError(where, std::string("malformed trial: ") + e.what());

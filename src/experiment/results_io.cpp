@@ -1,6 +1,8 @@
 #include "gapmark/experiment/results_io.hpp"
 
 #include "gapmark/error.hpp"
+#include "gapmark/experiment/record_checks.hpp"
+#include "gapmark/json_strict.hpp"
 #include "gapmark/table_io.hpp"
 
 namespace gapmark {
@@ -45,7 +47,7 @@ ResultSet results_from_json(const nlohmann::json& j, const std::string& source) 
     r.context = j.at("context");
     r.series = j.at("series");
     r.rank_by = j.at("rank_by").get<std::string>();
-    r.alpha = j.at("alpha").get<double>();
+    r.alpha = stored_alpha(j.at("alpha"), source + ": /alpha");
     r.equivalence = j.value("equivalence", kDefaultEquivalence);
     if (!(r.equivalence > 0 && r.equivalence < 1))
       throw InputError(source + ": /equivalence", "expected a number in (0, 1)");
@@ -71,7 +73,7 @@ ResultSet read_results(const std::filesystem::path& path) {
   const std::string text = read_text_file(path);
   nlohmann::json j;
   try {
-    j = nlohmann::json::parse(text);
+    j = parse_json_strict(text, path.string());
   } catch (const nlohmann::json::parse_error& e) {
     throw InputError(path.string(), std::string("invalid JSON: ") + e.what());
   } catch (const nlohmann::json::out_of_range& e) {  // a number too large for a double, such as 1e999

@@ -14,6 +14,7 @@
 #include <thread>
 
 #include "gapmark/error.hpp"
+#include "gapmark/interrupted.hpp"
 #include "gapmark/experiment/checkpoint.hpp"
 #include "gapmark/experiment/merge.hpp"
 #include "gapmark/hash.hpp"
@@ -159,6 +160,8 @@ std::vector<TrialRecord> run_task(const ExperimentSpec& spec, const LoadedData& 
       if (result.values.size() != holed.size())
         throw MethodFailure("returned " + std::to_string(result.values.size()) + " values for " +
                             std::to_string(holed.size()) + " points");
+    } catch (const Interrupted&) {
+      throw;  // not the method's failure: the task is not recorded
     } catch (const std::exception& e) {
       rec.status = TrialStatus::Failed;
       rec.reason = e.what();
@@ -242,6 +245,8 @@ std::size_t run_tasks(const ExperimentSpec& spec, const LoadedData& data, const 
         if (failed) return;
         sink(todo[i], std::move(records), std::move(warnings));
         ++done;
+      } catch (const Interrupted&) {
+        return;  // stopped by the user: this task stays to do (--resume runs it)
       } catch (...) {
         std::lock_guard lock(sink_mutex);
         if (!failed.exchange(true)) error = std::current_exception();
@@ -313,7 +318,8 @@ ResultSet run_experiment(const ExperimentSpec& spec, const RunOptions& options) 
   }
   // The example windows a folder run has.
   results.examples =
-      build_examples(spec, data, summarize(results), ExampleOptions{.threads = std::max(1u, options.threads)});
+      build_examples(spec, data, summarize(results),
+                     ExampleOptions{.threads = std::max(1u, options.threads), .allow_external = true});
   nlohmann::json per_method = nlohmann::json::object();
   for (const auto& [m, s] : method_seconds) per_method[m] = s;
   results.timing = {{"wall_seconds", std::chrono::duration<double>(std::chrono::steady_clock::now() - started).count()},
@@ -414,7 +420,10 @@ FolderRunStatus run_into_folder(const ExperimentSpec& spec, const RunOptions& op
     return status;
   }
   if (folder.before_reports) folder.before_reports();
-  ResultSet results = merge_checkpoints({folder.dir}, std::max(1u, options.threads));
+  // The examples re-read the data from this spec's folder (not the one a
+  // resumed checkpoint recorded); its outside programs already ran in this run.
+  ResultSet results = merge_checkpoints(
+      {folder.dir}, MergeOptions{.threads = std::max(1u, options.threads), .spec = &spec, .allow_external = true});
   results.timing["wall_seconds"] = std::chrono::duration<double>(std::chrono::steady_clock::now() - started).count();
   results.timing["threads"] = std::max(1u, options.threads);
   results.timing["resumed_tasks"] = status.resumed;

@@ -2,9 +2,12 @@
 
 #include <cstdint>
 #include <set>
+#include <type_traits>
 
 #include "gapmark/error.hpp"
 #include "gapmark/hash.hpp"
+#include "gapmark/json_strict.hpp"
+#include "gapmark/text_safety.hpp"
 #include "gapmark/number_format.hpp"
 #include "gapmark/table_io.hpp"
 
@@ -56,6 +59,20 @@ std::size_t line_of(const std::string& text, std::size_t byte) {
   return line;
 }
 
+/// Refuses the last element of `items` when it repeats an earlier one: a
+/// repeated entry would count the same replicates twice.
+template <class T>
+void refuse_repeat(const std::vector<T>& items, const Ctx& ctx, const std::string& pointer, const std::string& what) {
+  for (std::size_t i = 0; i + 1 < items.size(); ++i)
+    if (items[i] == items.back()) {
+      std::string shown;
+      if constexpr (std::is_same_v<T, std::string>) shown = " " + quoted_for_message(items.back());
+      else shown = " " + format_double(items.back());
+      throw InputError(ctx.at(pointer), what + shown + " is listed twice (also at position " + std::to_string(i) +
+                                            "); a repeated entry would count the same trials twice");
+    }
+}
+
 DataSource parse_data(const json& v, const Ctx& ctx, const std::string& pointer,
                       const std::filesystem::path& base_dir) {
   DataSource d;
@@ -72,8 +89,10 @@ DataSource parse_data(const json& v, const Ctx& ctx, const std::string& pointer,
                                                          : base_dir / d.label;
   if (auto it = obj.find("columns"); it != obj.end()) {
     const auto& cols = get_array(*it, ctx, pointer + "/columns");
-    for (std::size_t i = 0; i < cols.size(); ++i)
+    for (std::size_t i = 0; i < cols.size(); ++i) {
       d.columns.push_back(get_string(cols[i], ctx, pointer + "/columns/" + std::to_string(i)));
+      refuse_repeat(d.columns, ctx, pointer + "/columns/" + std::to_string(i), "column");
+    }
   }
   if (auto it = obj.find("time_column"); it != obj.end())
     d.time_column = get_string(*it, ctx, pointer + "/time_column");
@@ -89,8 +108,10 @@ DataSource parse_data(const json& v, const Ctx& ctx, const std::string& pointer,
   }
   if (auto it = obj.find("groups"); it != obj.end()) {
     const auto& groups = get_array(*it, ctx, pointer + "/groups");
-    for (std::size_t i = 0; i < groups.size(); ++i)
+    for (std::size_t i = 0; i < groups.size(); ++i) {
       d.groups.push_back(get_string(groups[i], ctx, pointer + "/groups/" + std::to_string(i)));
+      refuse_repeat(d.groups, ctx, pointer + "/groups/" + std::to_string(i), "group column");
+    }
   }
   return d;
 }
@@ -106,7 +127,7 @@ ExperimentSpec parse_spec(const std::string& text, const std::string& source,
   spec.text = text;
   spec.sha256 = sha256_hex(text);
   try {
-    spec.json = json::parse(text);
+    spec.json = parse_json_strict(text, source);
   } catch (const json::parse_error& e) {
     std::string what = e.what();
     auto pos = what.find("syntax error");
@@ -153,8 +174,15 @@ ExperimentSpec parse_spec(const std::string& text, const std::string& source,
   }
 
   const auto& data = get_array(require(j, "data", ctx, ""), ctx, "/data");
-  for (std::size_t i = 0; i < data.size(); ++i)
+  for (std::size_t i = 0; i < data.size(); ++i) {
     spec.data.push_back(parse_data(data[i], ctx, "/data/" + std::to_string(i), base_dir));
+    const auto& added = spec.data.back();
+    for (std::size_t k = 0; k + 1 < spec.data.size(); ++k)
+      if (spec.data[k].path.lexically_normal() == added.path.lexically_normal())
+        throw InputError(ctx.at("/data/" + std::to_string(i)),
+                         "the data file " + quoted_for_message(added.label) + " is listed twice (also /data/" +
+                             std::to_string(k) + "); list it once, with all the columns wanted");
+  }
 
   const auto& schemes = get_array(require(j, "schemes", ctx, ""), ctx, "/schemes");
   for (std::size_t i = 0; i < schemes.size(); ++i) {
@@ -169,6 +197,7 @@ ExperimentSpec parse_spec(const std::string& text, const std::string& source,
         if (!r[k].is_number()) throw InputError(ctx.at(rp), "expected a number");
         rates.push_back(r[k].get<double>());
         check_rate(rates.back(), ctx.at(rp));
+        refuse_repeat(rates, ctx, rp, "rate");
       }
     } else if (auto rate = call.take("rate")) {
       auto v = parse_double(*rate);
@@ -179,6 +208,10 @@ ExperimentSpec parse_spec(const std::string& text, const std::string& source,
       throw InputError(ctx.at(pointer + "/rates"), "required field is missing (e.g. \"rates\": [0.1, 0.3])");
     }
     plan.scheme = SchemeRegistry::global().bind(call, ctx.at(pointer));
+    for (const auto& earlier : spec.schemes)
+      if (earlier.scheme.label == plan.scheme.label)
+        throw InputError(ctx.at(pointer), "scheme " + quoted_for_message(plan.scheme.label) +
+                                              " is listed twice; give one entry with all its rates");
     plan.rates = std::move(rates);
     spec.schemes.push_back(std::move(plan));
   }

@@ -4,11 +4,18 @@
 #include <poll.h>
 #include <signal.h>
 #include <spawn.h>
+#include <dirent.h>
+#include <sys/prctl.h>
 #include <sys/types.h>
 #include <sys/wait.h>
 #include <unistd.h>
 
 #include <algorithm>
+#include <atomic>
+#include <fstream>
+#include <map>
+#include <mutex>
+#include <set>
 #include <cerrno>
 #include <chrono>
 #include <cmath>
@@ -18,8 +25,10 @@
 #include <thread>
 
 #include "gapmark/error.hpp"
+#include "gapmark/interrupted.hpp"
 #include "gapmark/number_format.hpp"
 #include "gapmark/series.hpp"
+#include "gapmark/text_safety.hpp"
 
 extern char** environ;
 
@@ -153,8 +162,100 @@ private:
   bool was_pending_ = false;
 };
 
-/// The started child: killed with its whole process group and reaped if it
-/// is still there when this goes out of scope.
+std::atomic<bool> g_interrupted{false};
+
+/// The programs run_program started and has not reaped yet. Any other child
+/// of this process is an orphan a program left behind (gapmark is their
+/// subreaper). Guarded by g_children_mutex, which is also held around
+/// posix_spawn so that a new child is registered before a sweep can see it.
+std::mutex g_children_mutex;
+std::set<pid_t> g_children;
+
+void become_subreaper() {
+  static std::once_flag once;
+  std::call_once(once, [] { ::prctl(PR_SET_CHILD_SUBREAPER, 1, 0, 0, 0); });
+}
+
+/// Parent of each process, from /proc (empty where /proc is unavailable).
+std::map<pid_t, pid_t> parents() {
+  std::map<pid_t, pid_t> out;
+  DIR* dir = ::opendir("/proc");
+  if (dir == nullptr) return out;
+  while (const dirent* entry = ::readdir(dir)) {
+    const char* name = entry->d_name;
+    if (*name < '1' || *name > '9') continue;
+    std::ifstream stat(std::string("/proc/") + name + "/stat");
+    std::string text;
+    if (!std::getline(stat, text)) continue;
+    // "pid (comm) state ppid ...": comm may hold spaces and parentheses.
+    const auto close = text.rfind(')');
+    if (close == std::string::npos || close + 4 >= text.size()) continue;
+    const pid_t ppid = static_cast<pid_t>(std::strtol(text.c_str() + close + 4, nullptr, 10));
+    out[static_cast<pid_t>(std::strtol(name, nullptr, 10))] = ppid;
+  }
+  ::closedir(dir);
+  return out;
+}
+
+/// `root` and every process below it.
+std::set<pid_t> tree_of(pid_t root) {
+  const auto parent = parents();
+  std::set<pid_t> tree{root};
+  for (bool grew = true; grew;) {
+    grew = false;
+    for (const auto& [pid, ppid] : parent)
+      if (tree.count(ppid) && tree.insert(pid).second) grew = true;
+  }
+  return tree;
+}
+
+/// Stops `root` and all its descendants (so none can start another), kills
+/// them, and waits until each is gone, reaping those that are (or become)
+/// this process's children.
+void end_tree(pid_t root) {
+  std::set<pid_t> frozen;
+  for (int round = 0; round < 100; ++round) {  // until no new process appears
+    bool grew = false;
+    for (pid_t p : tree_of(root))
+      if (frozen.insert(p).second) {
+        ::kill(p, SIGSTOP);
+        grew = true;
+      }
+    if (!grew) break;
+  }
+  ::kill(-root, SIGKILL);  // its process group, as before
+  for (pid_t p : frozen) ::kill(p, SIGKILL);
+  frozen.erase(root);  // the caller reaps the root
+  for (int wait = 0; wait < 2000 && !frozen.empty(); ++wait) {
+    for (auto it = frozen.begin(); it != frozen.end();) {
+      // Ours (orphaned to us) -> reaped here; gone -> its parent reaped it.
+      if (::waitpid(*it, nullptr, WNOHANG) == *it || (::kill(*it, 0) != 0 && errno == ESRCH)) it = frozen.erase(it);
+      else ++it;
+    }
+    if (!frozen.empty()) std::this_thread::sleep_for(std::chrono::milliseconds(1));
+  }
+}
+
+/// Ends the processes orphaned to gapmark by programs that are gone: every
+/// child of this process that run_program did not start. Called with the
+/// registry locked and no program running.
+void end_orphans() {
+  const pid_t self = ::getpid();
+  for (int round = 0; round < 10; ++round) {
+    bool found = false;
+    for (const auto& [pid, ppid] : parents())
+      if (ppid == self && !g_children.count(pid)) {
+        found = true;
+        end_tree(pid);
+        while (::waitpid(pid, nullptr, 0) < 0 && errno == EINTR) {
+        }
+      }
+    if (!found) break;
+  }
+}
+
+/// The started child: killed with all its descendants and reaped if it is
+/// still there when this goes out of scope.
 class Child {
 public:
   explicit Child(pid_t pid) : pid_(pid) {}
@@ -170,12 +271,16 @@ public:
     return ::waitid(P_PID, static_cast<id_t>(pid_), &info, WEXITED | WNOHANG | WNOWAIT) == 0 &&
            info.si_pid == pid_;
   }
-  /// Kills what is left of the group and reaps the child; returns its wait status.
+  /// Kills what is left of its tree and reaps the child; returns its wait
+  /// status. The last program to end also ends the orphans left behind.
   int kill_and_reap() {
-    ::kill(-pid_, SIGKILL);
+    end_tree(pid_);
     int status = 0;
     while (::waitpid(pid_, &status, 0) < 0 && errno == EINTR) {
     }
+    std::lock_guard lock(g_children_mutex);
+    g_children.erase(pid_);
+    if (g_children.empty()) end_orphans();
     pid_ = -1;
     return status;
   }
@@ -225,9 +330,17 @@ constexpr std::size_t kChunk = 64 * 1024;
 
 }  // namespace
 
+void interrupt_external_programs() noexcept { g_interrupted.store(true); }
+bool external_programs_interrupted() noexcept { return g_interrupted.load(); }
+
 ProgramOutcome run_program(const ProgramRun& run) {
   using Clock = std::chrono::steady_clock;
   if (run.argv.empty()) throw MethodFailure("no program to run");
+  const auto check_interrupt = [] {
+    if (g_interrupted.load()) throw Interrupted("stopped by an interrupt");
+  };
+  check_interrupt();
+  become_subreaper();
   const auto deadline = Clock::now() + std::chrono::duration_cast<Clock::duration>(
                                            std::chrono::duration<double>(run.timeout_seconds));
   const std::string timed_out = "timed out after " + format_double(run.timeout_seconds) + " s";
@@ -241,6 +354,9 @@ ProgramOutcome run_program(const ProgramRun& run) {
   sigemptyset(&no_signals);
   sigemptyset(&default_signals);
   sigaddset(&default_signals, SIGPIPE);
+  sigaddset(&default_signals, SIGXFSZ);  // gapmark ignores it; the program gets the usual default
+  sigaddset(&default_signals, SIGINT);
+  sigaddset(&default_signals, SIGTERM);
   posix_spawnattr_setsigmask(&setup.attr, &no_signals);
   posix_spawnattr_setsigdefault(&setup.attr, &default_signals);
   if (!run.working_dir.empty()) posix_spawn_file_actions_addchdir_np(&setup.actions, run.working_dir.c_str());
@@ -254,9 +370,12 @@ ProgramOutcome run_program(const ProgramRun& run) {
 
   const SigpipeGuard sigpipe_guard;
   pid_t pid = 0;
+  std::unique_lock registry(g_children_mutex);
   const int spawn_error = ::posix_spawnp(&pid, argv[0], &setup.actions, &setup.attr, argv.data(), envp.data());
+  if (spawn_error == 0) g_children.insert(pid);
+  registry.unlock();
   if (spawn_error != 0)
-    throw MethodFailure("cannot start '" + run.argv[0] + "': " + error_text(spawn_error));
+    throw MethodFailure("cannot start " + quoted_for_message(run.argv[0], 200) + ": " + error_text(spawn_error));
   Child child(pid);
   in.read.reset();
   out.write.reset();
@@ -272,13 +391,14 @@ ProgramOutcome run_program(const ProgramRun& run) {
   while (out.read.open() || err.read.open()) {
     const auto left = std::chrono::duration_cast<std::chrono::milliseconds>(deadline - Clock::now()).count();
     if (left <= 0) throw MethodFailure(timed_out);
+    check_interrupt();
     pollfd fds[3];
     nfds_t count = 0;
     int in_slot = -1, out_slot = -1, err_slot = -1;
     if (in.write.open()) { in_slot = static_cast<int>(count); fds[count++] = {in.write.get(), POLLOUT, 0}; }
     if (out.read.open()) { out_slot = static_cast<int>(count); fds[count++] = {out.read.get(), POLLIN, 0}; }
     if (err.read.open()) { err_slot = static_cast<int>(count); fds[count++] = {err.read.get(), POLLIN, 0}; }
-    const int ready = ::poll(fds, count, static_cast<int>(std::min<long long>(left, 1000)));
+    const int ready = ::poll(fds, count, static_cast<int>(std::min<long long>(left, 100)));
     if (ready < 0) {
       if (errno == EINTR) continue;
       throw MethodFailure("waiting for the program failed: " + error_text(errno));
@@ -315,6 +435,7 @@ ProgramOutcome run_program(const ProgramRun& run) {
   // Both output pipes are closed: the program is ending or has closed them.
   while (!child.exited()) {
     if (Clock::now() >= deadline) throw MethodFailure(timed_out);
+    check_interrupt();
     std::this_thread::sleep_for(std::chrono::milliseconds(1));
   }
   const int status = child.kill_and_reap();  // also ends anything it left running in its group
@@ -328,11 +449,7 @@ std::string first_line(std::string_view text, std::size_t limit) {
   while (!text.empty()) {
     const std::size_t end = text.find('\n');
     const std::string_view line = trim(text.substr(0, end));
-    if (!line.empty()) {
-      std::string s(line.substr(0, limit));
-      if (line.size() > limit) s += "...";
-      return s;
-    }
+    if (!line.empty()) return printable(line, limit);  // escaped: a program may print anything
     if (end == std::string_view::npos) break;
     text.remove_prefix(end + 1);
   }
@@ -355,11 +472,7 @@ std::string series_csv(std::span<const double> values, const TimeAxis& axis) {
 
 namespace {
 
-std::string shown(std::string_view text) {
-  std::string s(text.substr(0, 60));
-  if (text.size() > 60) s += "...";
-  return "'" + s + "'";
-}
+std::string shown(std::string_view text) { return quoted_for_message(text, 60); }
 
 /// Splits the output into lines: "\n" or "\r\n" ends a line; a final line
 /// end is optional.

@@ -309,6 +309,8 @@ std::string example_section(const nlohmann::json* example, StyleMap& styles) {
     s.push_back(styles(names.back()));
     if (m.value("status", std::string()) == "failed")
       failures += " " + escape(names.back()) + " failed on this replicate: " + escape(m.value("reason", std::string())) + ".";
+    else if (m.value("status", std::string()) == "not run")
+      failures += " " + escape(names.back()) + " is not drawn: " + escape(m.value("reason", std::string())) + ".";
   }
   const std::string window = charts::window_chart(*example, s);
   const std::string acf = charts::acf_chart(*example, s);

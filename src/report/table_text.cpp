@@ -1,5 +1,7 @@
 #include "gapmark/report/table_text.hpp"
 
+#include "gapmark/text_safety.hpp"
+
 #include <cmath>
 #include <cstdio>
 
@@ -34,17 +36,35 @@ std::string direction_words(Direction d) {
   return "";
 }
 
+std::string markdown_text(const std::string& text) {
+  const std::string valid = utf8_replaced(text);
+  std::string out;
+  out.reserve(valid.size());
+  for (char c : valid) {
+    const auto u = static_cast<unsigned char>(c);
+    if (u < 0x20 || u == 0x7F) out += ' ';
+    else if (c == '<') out += "&lt;";
+    else if (c == '>') out += "&gt;";
+    else if (c == '&') out += "&amp;";
+    else if (c == '\\' || c == '`' || c == '*' || c == '|') {
+      out += '\\';
+      out += c;
+    } else {
+      out += c;
+    }
+  }
+  return out;
+}
+
+std::string markdown_code(const std::string& text) {
+  const std::string shown = printable(text, 200);
+  if (shown.find('`') == std::string::npos) return "`" + shown + "`";
+  return "`` " + shown + " ``";
+}
+
 std::string markdown_table(const std::vector<std::string>& header,
                            const std::vector<std::vector<std::string>>& rows) {
-  auto escape = [](const std::string& cell) {
-    std::string out;
-    for (char c : cell) {
-      if (c == '|') out += "\\|";
-      else if (c == '\n') out += ' ';
-      else out += c;
-    }
-    return out;
-  };
+  const auto escape = [](const std::string& cell) { return markdown_text(cell); };
   std::string out = "|";
   for (const auto& h : header) out += " " + escape(h) + " |";
   out += "\n|";

@@ -16,7 +16,7 @@ cat >project/spec.json <<JSON
   "output": "out"
 }
 JSON
-(cd elsewhere && "$GAPMARK" run ../project/spec.json --quiet)
+(cd elsewhere && "$GAPMARK" run ../project/spec.json --quiet --allow-external)
 check "the run wrote its results beside the spec" test -s project/out/results.json
 check "every trial succeeded (2 methods x 2 replicates)" test "$(grep -c '"status": "ok"' project/out/results.json)" -ge 4
 check "no trial failed" test "$(grep -c '"status": "failed"' project/out/results.json)" -eq 0

@@ -23,7 +23,7 @@ JSON
 check "a run with room writes results.json" test -s whole/results.json
 # results.json without its top-level "timing" member (wall-clock facts).
 strip_timing() { sed '/^ "timing": {/,/^ }/d' "$1"; }
-leftovers() { find "$@" -name '*.tmp-*' 2>/dev/null | wc -l; }
+leftovers() { find "$@" -name '*tmp-*' 2>/dev/null | wc -l; }  # *.gapmark-tmp-*
 
 # --- nowhere to write: one line naming the place, nothing written
 expect_fail 2 "^gapmark: $NOWHERE" -- "$GAPMARK" run run.json --out $NOWHERE --quiet

@@ -49,7 +49,7 @@ for k in 1 2 3; do
 done
 check "the shards' tasks add up to the grid" \
   test $(($(lines shard1) + $(lines shard2) + $(lines shard3) - 3)) -eq $TOTAL
-"$GAPMARK" merge shard2 shard3 shard1 --out merged --quiet
+"$GAPMARK" merge shard2 shard3 shard1 --out merged --spec run.json --quiet
 check "merged results.json equals the single run's" same_results single merged
 for f in ranking.md ranking.csv methods.md; do
   check "merged $f equals the single run's" cmp -s single/$f merged/$f

@@ -17,6 +17,7 @@
 #include <map>
 #include <nlohmann/json.hpp>
 #include <string>
+#include <vector>
 
 namespace gapmark {
 
@@ -45,5 +46,10 @@ struct Tolerances {
 Tolerances parse_tolerance_text(const std::string& text, const std::string& where, Tolerances base = {});
 /// Adds the entries of a JSON tolerance file to `base`; errors name the file and field.
 Tolerances read_tolerance_file(const std::filesystem::path& path, Tolerances base = {});
+
+/// Refuses (InputError naming `where`) a tolerance for a metric that is not
+/// one of `columns`: a misspelt name would otherwise be ignored silently.
+void check_tolerance_metrics(const Tolerances& tolerances, const std::vector<std::string>& columns,
+                             const std::string& where);
 
 }  // namespace gapmark

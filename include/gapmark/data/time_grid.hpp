@@ -69,4 +69,13 @@ std::optional<Step> infer_step(TimeKind kind, std::span<const std::int64_t> sort
 /// or 0 when they do not keep one.
 int month_anchor_day(std::span<const std::int64_t> times);
 
+/// The most points a regular grid may have per series (50 million: 95 years
+/// at one minute, about 400 MB per value column in memory). A span and step
+/// that would need more are refused before anything is allocated.
+inline constexpr std::int64_t kMaxGridPoints = 50'000'000;
+
+/// Refuses (InputError naming `where`) a grid of `points` points (a count
+/// that overflowed is passed as a negative number) at `step`.
+void check_grid_size(std::int64_t points, const Step& step, const std::string& where);
+
 }  // namespace gapmark::data

@@ -31,6 +31,9 @@ struct ExampleOptions {
   std::size_t top = 3;       ///< leading methods shown
   std::size_t max_series = 40;  ///< example windows for the first this-many series only
   unsigned threads = 1;  ///< series built side by side (the result does not depend on it)
+  /// Whether "external" methods may be started again; when not, they are
+  /// listed with status "not run" and no fill.
+  bool allow_external = false;
 };
 
 /// Builds the "examples" block. Deterministic: same spec, data and summary,

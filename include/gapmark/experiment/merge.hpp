@@ -11,19 +11,34 @@
 #include "gapmark/experiment/checkpoint.hpp"
 #include "gapmark/experiment/record.hpp"
 #include "gapmark/analysis/summary.hpp"
+#include "gapmark/experiment/spec.hpp"
 
 namespace gapmark {
 
 /// The file a finished shard leaves beside its checkpoint.
 inline constexpr const char* kShardMarkerFile = "shard.json";
 
+/// How a merge draws the example windows of the reports.
+struct MergeOptions {
+  unsigned threads = 1;  ///< example windows are built on this many threads
+  /// The run's spec as the user named it: its SHA-256 must be the one the
+  /// checkpoints record, and its folder is where the data are read again for
+  /// the example windows. Null: no example windows (a warning says why). The
+  /// folder a checkpoint records is never used: a checkpoint is data and
+  /// cannot send gapmark to another folder.
+  const ExperimentSpec* spec = nullptr;
+  /// Whether the spec's "external" methods may be started again to draw
+  /// their example windows; without it they are left out with a warning.
+  bool allow_external = false;
+};
+
 /// Reads finished checkpoints (folders or trials.jsonl files): one whole run,
 /// or every shard 1/N ... N/N of one run, in any order. Checks that they are
 /// runs of the same spec, data and build, that no shard is given twice or
 /// missing, and that each is finished; errors are one line naming the folder.
 /// Returns the results with trials in canonical order; "timing" holds the
-/// fill seconds per method. The example windows are built on `threads`.
-ResultSet merge_checkpoints(const std::vector<std::filesystem::path>& inputs, unsigned threads = 1);
+/// fill seconds per method. Example windows as `options` say.
+ResultSet merge_checkpoints(const std::vector<std::filesystem::path>& inputs, const MergeOptions& options = {});
 
 /// Writes every registered report into `dir`: the same files as
 /// write_reports, but each report goes to a temporary file as soon as it is

@@ -45,7 +45,20 @@ struct ProgramOutcome {
   int signal = 0;
 };
 
-/// Runs the program in a process group of its own. Throws MethodFailure
+/// Ends every running outside program and its descendants at once, and
+/// makes every later run_program throw Interrupted. Async-signal-safe: it only
+/// sets a flag, which the waiting loops see within 0.1 s.
+void interrupt_external_programs() noexcept;
+bool external_programs_interrupted() noexcept;
+
+/// Runs the program in a process group of its own. gapmark is made a child
+/// subreaper (PR_SET_CHILD_SUBREAPER), so that every process the program
+/// starts stays findable, even in a session of its own (setsid) or after its
+/// parent exits. When the call ends (exit, timeout, interrupt, error), the
+/// program and all its descendants are stopped, killed and reaped; processes
+/// orphaned by programs that already exited are ended when no program is
+/// running any more. Throws Interrupted after interrupt_external_programs().
+/// Throws MethodFailure
 /// when it cannot start ("cannot start 'x': ..."), runs past the timeout
 /// ("timed out after 1 s"; the whole group is killed) or prints more than
 /// max_output_bytes. A non-zero exit is returned, not thrown.

@@ -17,7 +17,17 @@ std::string interval(const MetricSummary& s);
 /// Words for a direction: "lower is better", "closer to 0 is better", ...
 std::string direction_words(Direction d);
 
-/// A Markdown table: header, rows, with `|` in cells escaped.
+/// Text from the data or the spec (a series, method or scheme name) for
+/// Markdown prose, headings and table cells: line breaks and control bytes
+/// become spaces, and the characters Markdown or HTML would read as markup
+/// (\ ` * [ ] | # < > &) are escaped, so a name cannot inject markup, break a
+
+std::string markdown_text(const std::string& text);
+/// The same inside a code span (`name`): control bytes escaped, and a name
+/// holding a backtick fenced with two.
+std::string markdown_code(const std::string& text);
+
+/// A Markdown table: header, rows, each cell passed through markdown_text.
 std::string markdown_table(const std::vector<std::string>& header,
                            const std::vector<std::vector<std::string>>& rows);
 
