@@ -50,9 +50,9 @@ std::string with_parameters(const std::string& label) {
   try {
     call = CallSpec::parse(label, "label");
   } catch (const std::exception&) {
-    return "`" + label + "`";
+    return markdown_code(label);
   }
-  std::string out = "`" + call.name + "`";
+  std::string out = markdown_code(call.name);
   std::vector<std::string> params;
   for (const auto& [k, v] : call.args) params.push_back(k + " = " + v);
   return params.empty() ? out : out + " (" + join(params, "and") + ")";
@@ -113,14 +113,14 @@ std::string results_section(const ResultSet& results, const Summary& summary) {
   const std::string level = short_number(100 * (1 - summary.alpha));
   std::string out = "\n## Results\n\n";
   for (const auto& v : summary.verdict.series) {
-    out += "**" + v.series + "**. ";
+    out += "**" + markdown_text(v.series) + "**. ";
     if (v.recommended.empty()) {
       out += "No method could be ranked.";
     } else {
-      out += "`" + v.recommended + "` is recommended";
+      out += markdown_code(v.recommended) + " is recommended";
       if (!v.equally_good.empty()) {
         std::vector<std::string> names;
-        for (const auto& n : v.equally_good) names.push_back("`" + n + "`");
+        for (const auto& n : v.equally_good) names.push_back(markdown_code(n));
         out += "; " + join(names) + (names.size() == 1 ? " was" : " were") + " shown equally good";
       }
       out += ".";
@@ -139,7 +139,7 @@ std::string results_section(const ResultSet& results, const Summary& summary) {
       std::map<Standing, std::vector<std::string>> by;
       for (std::size_t i = 1; i < g.methods.size(); ++i) {
         const auto& m = g.methods[i];
-        std::string item = "`" + m.method + "`";
+        std::string item = markdown_code(m.method);
         if (std::isfinite(m.relative_difference))
           item += " (" + std::string(m.relative_difference >= 0 ? "+" : "") + percent(m.relative_difference) + ")";
         if (m.failures) item += " (failed " + std::to_string(m.failures) + " of " + std::to_string(m.trials) + ")";
@@ -177,7 +177,7 @@ std::string limitations_section(const ResultSet& results, const Summary& summary
       const double points = s.value("points", 0.0), observed = s.value("observed", 0.0);
       if (points <= 0) continue;
       const double total = (points - observed + max_rate * observed) / points;
-      if (points - observed > 0) shares.push_back("`" + s.value("label", std::string()) + "` " + percent(total));
+      if (points - observed > 0) shares.push_back(markdown_code(s.value("label", std::string())) + " " + percent(total));
     }
     if (!shares.empty())
       out += " The masks came on top of the series' own missing values, so at the highest rate the total missing "
@@ -193,7 +193,7 @@ std::string limitations_section(const ResultSet& results, const Summary& summary
   if (!period_given && results.series.is_array())
     for (const auto& s : results.series)
       if (s.value("period", 0) > 0)
-        assumed.push_back("`" + s.value("label", std::string()) + "` (" + std::to_string(s.value("period", 0)) + ")");
+        assumed.push_back(markdown_code(s.value("label", std::string())) + " (" + std::to_string(s.value("period", 0)) + ")");
   if (!assumed.empty())
     out += " The seasonal period was not set in the spec; the one assumed from the time step was used for " +
            join(assumed) + ".";

@@ -22,17 +22,17 @@ public:
     const std::size_t rank_col = results.column_index(results.rank_by);
     const auto& rc = results.columns[rank_col];
     const std::string level = short_number(100 * (1 - summary.alpha));
-    std::string out = "# Ranked fill methods: " + results.context.value("spec_name", std::string("experiment")) + "\n\n";
+    std::string out = "# Ranked fill methods: " + markdown_text(results.context.value("spec_name", std::string("experiment"))) + "\n\n";
     out += "Filled values are estimates. A benchmark on synthetic masks can flatter a method when the "
            "real gaps differ; where filled data feed safety decisions, follow the applicable standards "
            "and have a qualified person review the choice.\n\n";
     out += "## Verdict\n\n";
     for (const auto& v : summary.verdict.series) {
-      out += "**" + v.series + "**: " +
-             (v.recommended.empty() ? std::string("no recommendation") : "recommended `" + v.recommended + "`");
+      out += "**" + markdown_text(v.series) + "**: " +
+             (v.recommended.empty() ? std::string("no recommendation") : "recommended " + markdown_code(v.recommended));
       if (!v.equally_good.empty()) {
         std::vector<std::string> names;
-        for (const auto& n : v.equally_good) names.push_back("`" + n + "`");
+        for (const auto& n : v.equally_good) names.push_back(markdown_code(n));
         out += "; equally good: " + join_words(names);
       }
       out += "\n\n";
@@ -57,9 +57,9 @@ public:
     for (const auto& g : summary.groups) {
       if (g.series != current) {
         current = g.series;
-        out += "\n## " + g.series + "\n";
+        out += "\n## " + markdown_text(g.series) + "\n";
       }
-      out += "\n### " + g.scheme + " at rate " + format_double(g.rate) + " (" + std::to_string(g.replicates) +
+      out += "\n### " + markdown_text(g.scheme) + " at rate " + format_double(g.rate) + " (" + std::to_string(g.replicates) +
              " replicates)\n\n";
       std::vector<std::string> header{"rank", "method", rc.name, "interval", "verdict", "failed"};
       std::vector<std::size_t> shown;
@@ -91,7 +91,7 @@ public:
     if (!warnings.empty()) {
       out += "\n## Warnings\n\n";
       for (const auto& w : warnings)
-        out += "- **" + w.code + "** (" + w.where + "): " + w.message + ". *" + w.hint + ".*\n";
+        out += "- **" + markdown_text(w.code) + "** (" + markdown_text(w.where) + "): " + markdown_text(w.message) + ". *" + markdown_text(w.hint) + ".*\n";
     }
     return out;
   }

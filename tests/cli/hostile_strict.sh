@@ -43,7 +43,7 @@ expect_fail 2 "cp1/trials.jsonl:2: masked: expected a whole number >= 0, found '
   "$GAPMARK" run ok.json --resume cp1 --quiet
 cp -r out_ok cp2
 sed -i '2s/"status":"ok"/"status":"weird"/' cp2/trials.jsonl
-expect_fail 2 "cp2/trials.jsonl:2: status: expected \"ok\", \"partial\" or \"failed\", found '\"weird\"'" -- \
+expect_fail 2 "cp2/trials.jsonl:2: unknown trial status 'weird'" -- \
   "$GAPMARK" run ok.json --resume cp2 --quiet
 # ... and in a results file: a metric that is not a number.
 awk '/^ "trials": \[/ {t = 1} t && !done && /"rmse": [0-9]/ {sub(/"rmse": [^,]*/, "\"rmse\": \"abc\""); done = 1} {print}' \
