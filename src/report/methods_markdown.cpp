@@ -226,7 +226,7 @@ public:
     if (results.series.is_array())
       for (const auto& s : results.series) {
         const std::size_t period = s.value("period", 0);
-        out += "- `" + s.value("label", std::string()) + "` (" + s.value("source", std::string()) + "): " +
+        out += "- " + markdown_code(s.value("label", std::string())) + " (" + markdown_text(s.value("source", std::string())) + "): " +
                std::to_string(s.value("points", 0)) + " points, " + std::to_string(s.value("observed", 0)) +
                " observed, regular step " + s.value("step", std::string()) + " starting " +
                s.value("start", std::string()) + ", seasonal period " +
