@@ -37,7 +37,7 @@ int main(int argc, char** argv) {
 
   std::printf("%zu points, %zu missing, period %zu\n", n, missing, period);
   std::printf("%-28s %10s %10s\n", "method", "ms", "unfilled");
-  for (const std::string call : {"natural-spline", "pchip", "makima", "window-mean", "window-mean:k=50,weights=linear",
+  for (const std::string call : {"natural-spline", "pchip", "akima-weighted", "window-mean", "window-mean:reach=50,weights=triangular",
                                  "seasonal-mean", "seasonal-mean:statistic=median", "seasonal-adjusted",
                                  "seasonal-adjusted:inner=pchip", "seasonal-adjusted:decomposition=stl"}) {
     const auto bound = MethodRegistry::global().bind(CallSpec::parse(call, "bench"), "bench");

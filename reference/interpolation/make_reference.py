@@ -10,7 +10,7 @@ Writes, beside this script:
                              scipy.interpolate.CubicSpline(bc_type="natural"),
                              scipy.interpolate.PchipInterpolator and a short
                              numpy implementation of the modified Akima
-                             definition (scipy 1.10 has no makima variant)
+                             definition (scipy 1.10 has only the original weights)
   seasonal_decomposition.json  complete series with the trend and seasonal
                              components of
                              statsmodels.tsa.seasonal.seasonal_decompose(model="additive")
@@ -105,7 +105,7 @@ def invented_cases():
 
 
 # ------------------------------------------------------ modified Akima
-def makima_slopes(x, y):
+def akima_weighted_slopes(x, y):
     """Derivatives at the knots by Akima's (1970) construction with the
     modified weights w1 = |m[i+1] - m[i]| + |m[i+1] + m[i]|/2,
     w2 = |m[i-1] - m[i-2]| + |m[i-1] + m[i-2]|/2, and Akima's end rule of two
@@ -151,10 +151,10 @@ def interpolation_reference():
             fill_inside(v, si.CubicSpline(x, y, bc_type="natural")))
         entry["pchip"] = to_json_list(fill_inside(v, si.PchipInterpolator(x, y)))
         if len(x) >= 4:
-            herm = si.CubicHermiteSpline(x, y, makima_slopes(x, y))
-            entry["makima"] = to_json_list(fill_inside(v, herm))
+            herm = si.CubicHermiteSpline(x, y, akima_weighted_slopes(x, y))
+            entry["akima_weighted"] = to_json_list(fill_inside(v, herm))
         else:
-            entry["makima"] = None
+            entry["akima_weighted"] = None
         out.append(entry)
     return out
 
@@ -197,7 +197,7 @@ def main():
         "sources": {
             "natural_spline": "scipy.interpolate.CubicSpline(x, y, bc_type='natural')",
             "pchip": "scipy.interpolate.PchipInterpolator(x, y)",
-            "makima": "numpy implementation of Akima (1970) with the modified weights, "
+            "akima_weighted": "numpy implementation of Akima (1970) with the modified weights, "
                       "evaluated by scipy.interpolate.CubicHermiteSpline",
         },
         "knots": "x = index of each observed point, y = its value",

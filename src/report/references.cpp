@@ -94,7 +94,7 @@ const std::vector<Reference> kReferences = {
 
 /// Fill methods (registry names).
 const std::map<std::string, std::vector<std::string>> kMethodKeys = {
-    {"pchip", {"fritsch1980"}},          {"makima", {"akima1970"}},  {"natural-spline", {"deboor1978"}},
+    {"pchip", {"fritsch1980"}},          {"akima-weighted", {"akima1970"}},  {"natural-spline", {"deboor1978"}},
     {"kalman", {"durbin2012"}},          {"low-rank", {"mazumder2010"}},
 };
 

@@ -38,9 +38,9 @@ cat >spec_all_missing.json <<JSON
 JSON
 expect_fail 2 "all_missing.csv: column 'a' has no observed values" -- "$GAPMARK" run spec_all_missing.json --out out3
 cat >spec_bad_method.json <<JSON
-{"data": [{"file": "$DATA"}], "schemes": [{"name": "random", "rates": [0.1]}], "methods": ["linear", {"name": "window-mean", "k": 0}]}
+{"data": [{"file": "$DATA"}], "schemes": [{"name": "random", "rates": [0.1]}], "methods": ["linear", {"name": "window-mean", "reach": 0}]}
 JSON
-expect_fail 2 "spec_bad_method.json: /methods/1.*k.*outside" -- "$GAPMARK" run spec_bad_method.json --out out4
+expect_fail 2 "spec_bad_method.json: /methods/1.*reach.*outside" -- "$GAPMARK" run spec_bad_method.json --out out4
 check "no results written on failure" test ! -e out1 -a ! -e out2 -a ! -e out3 -a ! -e out4
 expect_fail 2 "missing.json" -- "$GAPMARK" run missing.json
 expect_fail 2 "" -- "$GAPMARK" run

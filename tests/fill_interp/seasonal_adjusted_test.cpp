@@ -154,5 +154,5 @@ TEST_CASE("seasonal-adjusted: inner method errors and unmet needs") {
   CHECK_THROWS_AS(run_fill("seasonal-adjusted", v, 0), MethodFailure);  // no period
   // An inner method whose own needs fail is reported through the outer one.
   const std::vector<double> sparse{1, NA, NA, NA, NA, NA, NA, 2, NA};
-  CHECK_THROWS_AS(run_fill("seasonal-adjusted:inner=makima", sparse, 4), MethodFailure);
+  CHECK_THROWS_AS(run_fill("seasonal-adjusted:inner=akima-weighted", sparse, 4), MethodFailure);
 }

@@ -1,10 +1,10 @@
-// Modified Akima interpolation through the observed points (knots at their
+// akima-weighted: Akima interpolation with modified slope weights through the observed points (knots at their
 // indices): Akima's (1970) local cubic Hermite scheme, whose knot slopes are
 // weighted means of the neighbouring secant slopes, with the modified weights
 // w1 = |m[i+1] - m[i]| + |m[i+1] + m[i]|/2, w2 = |m[i-1] - m[i-2]| + |m[i-1] + m[i-2]|/2
 // that avoid overshoot on flat stretches. Ends use Akima's quadratic
 // extrapolation of two extra secant slopes on each side. The slopes and the
-// curve come from Boost.Math's makima, which needs at least four knots; with
+// curve come from Boost.Math (its class for this scheme), which needs at least four knots; with
 // fewer observed points the method fails with that reason. Gaps outside the
 // observed span follow the edges policy.
 #include <algorithm>
@@ -20,12 +20,12 @@ namespace {
 
 const Needs kNeeds{.min_observed = 4};
 
-class Makima final : public FillMethod {
+class AkimaWeighted final : public FillMethod {
 public:
-  explicit Makima(std::string edges) : edges_(std::move(edges)) {}
+  explicit AkimaWeighted(std::string edges) : edges_(std::move(edges)) {}
 
   FillResult fill(const FillRequest& request) const override {
-    check_needs(kNeeds, request);  // Boost's makima needs four knots
+    check_needs(kNeeds, request);  // Boost.Math needs four knots
     Knots k = observed_knots(request.values);
     // The slope weights multiply slopes by slopes, which overflows for values
     // beyond ~1e154 and vanishes below ~1e-154. The curve scales with the
@@ -48,11 +48,11 @@ private:
 };
 
 const Registration<FillMethod> registration{{
-    .name = "makima",
-    .summary = "modified Akima cubic through the observed points (local, little overshoot)",
+    .name = "akima-weighted",
+    .summary = "Akima's cubic with modified slope weights through the observed points (local, little overshoot)",
     .params = {edges_param()},
     .needs = kNeeds,
-    .make = [](const ParamValues& p) { return std::make_unique<Makima>(p.text("edges")); },
+    .make = [](const ParamValues& p) { return std::make_unique<AkimaWeighted>(p.text("edges")); },
 }};
 
 }  // namespace
