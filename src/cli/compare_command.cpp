@@ -4,6 +4,7 @@
 #include <iostream>
 
 #include "commands.hpp"
+#include "output_rules.hpp"
 #include "gapmark/compare/compare.hpp"
 #include "gapmark/experiment/results_io.hpp"
 #include "gapmark/table_io.hpp"
@@ -13,7 +14,7 @@ namespace gapmark::cli {
 void add_compare(CLI::App& app, Action& action) {
   struct Options {
     std::string baseline, current, tolerance, tolerance_file, json;
-    bool all = false;
+    bool all = false, force = false;
   };
   auto o = std::make_shared<Options>();
   auto* cmd = app.add_subcommand(
@@ -26,9 +27,14 @@ void add_compare(CLI::App& app, Action& action) {
   cmd->add_option("--tolerance-file", o->tolerance_file,
                   "JSON {\"rmse\": {\"relative\": 0.05}, \"mae\": {\"absolute\": 0.01}}; --tolerance wins over it");
   cmd->add_option("--json", o->json, "Also write the comparison as JSON to this file");
+  add_force_flag(*cmd, o->force);
   cmd->add_flag("--all", o->all, "Print every changed metric of every cell (default: a summary and the worst 20 cells)");
   cmd->callback([&action, o] {
     action = [o] {
+      if (!o->json.empty()) {
+        check_output_file(o->json, o->force);
+        check_file_is_no_input(o->json, {o->baseline, o->current});
+      }
       Tolerances tolerances;
       if (!o->tolerance_file.empty()) tolerances = read_tolerance_file(o->tolerance_file, tolerances);
       if (!o->tolerance.empty()) tolerances = parse_tolerance_text(o->tolerance, "--tolerance", tolerances);

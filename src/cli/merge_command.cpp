@@ -8,6 +8,7 @@
 #include "commands.hpp"
 #include "gapmark/experiment/merge.hpp"
 #include "output_rules.hpp"
+#include "stop_signals.hpp"
 
 namespace gapmark::cli {
 
@@ -45,8 +46,16 @@ void add_merge(CLI::App& app, Action& action) {
       const OutputDir folder_made(o->out);
       const FolderLock lock(o->out);
       remove_stale_temp_files(o->out);
+      // Ctrl-C while outside programs draw the example windows ends them at
+      // once and writes nothing; without them the default (quit) is right.
+      if (spec && o->allow_external && !external_commands(*spec).empty())
+        catch_stop_signals(StoppedWork::merge_with_programs);
       ResultSet results = merge_checkpoints(
           inputs, MergeOptions{.threads = threads, .spec = spec ? &*spec : nullptr, .allow_external = o->allow_external});
+      if (stop_flag().load()) {
+        std::cerr << "interrupted: nothing written to " << o->out << "; run the merge again\n";
+        return stopped_exit_status();
+      }
       prepare_output_folder(o->out);
       const auto written = write_final_reports(results, o->out, threads);
       if (!o->quiet)

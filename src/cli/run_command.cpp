@@ -17,43 +17,10 @@
 #include "gapmark/experiment/runner.hpp"
 #include "gapmark/fill/external_program.hpp"
 #include "output_rules.hpp"
+#include "stop_signals.hpp"
 
 namespace gapmark::cli {
 namespace {
-
-std::atomic<bool> g_stop{false};
-std::atomic<int> g_signal{0};
-std::atomic<bool> g_external{false};  // the spec runs outside programs
-static_assert(std::atomic<bool>::is_always_lock_free && std::atomic<int>::is_always_lock_free);
-
-extern "C" void on_stop_signal(int signal) {
-  g_signal.store(signal);
-  g_stop.store(true);
-  interrupt_external_programs();
-  static const char with_programs[] =
-      "\ngapmark: stopping: no new task starts; outside programs still running are ended now and their tasks left "
-      "for --resume; finished tasks are kept (a second signal quits at once)\n";
-  static const char without[] =
-      "\ngapmark: stopping: no new task starts; the tasks running finish and are kept (a second signal quits at "
-      "once)\n";
-  const bool external = g_external.load();
-  const ssize_t n = ::write(STDERR_FILENO, external ? with_programs : without,
-                            external ? sizeof with_programs - 1 : sizeof without - 1);
-  (void)n;
-}
-
-/// SIGINT (Ctrl-C) and SIGTERM (a batch system's time limit) stop the run:
-/// tasks in flight finish and reach the checkpoint, except those waiting on
-/// an outside program, which is ended at once (the task is run again by
-/// --resume); a second signal kills at once.
-void catch_stop_signals() {
-  struct sigaction action {};
-  action.sa_handler = on_stop_signal;
-  action.sa_flags = SA_RESETHAND;
-  sigemptyset(&action.sa_mask);
-  sigaction(SIGINT, &action, nullptr);
-  sigaction(SIGTERM, &action, nullptr);
-}
 
 std::string duration_text(double seconds) {
   if (!(seconds < 1e7)) return "?";
@@ -192,18 +159,16 @@ void add_run(CLI::App& app, Action& action) {
       RunOptions options;
       options.threads = o->threads ? o->threads : std::max(1u, std::thread::hardware_concurrency());
       options.progress = progress_printer(o->quiet);
-      options.stop = &g_stop;
-      g_external.store(!external_commands(spec).empty());
-      catch_stop_signals();
+      options.stop = &stop_flag();
+      catch_stop_signals(external_commands(spec).empty() ? StoppedWork::tasks : StoppedWork::tasks_with_programs);
       const FolderRunStatus status = run_into_folder(spec, options, folder);
 
       if (!status.complete()) {
-        const int signal = g_signal.load();
-        std::cerr << (signal == SIGTERM ? "terminated: " : "interrupted: ") << status.done << " of " << status.total
+        std::cerr << (stop_signal() == SIGTERM ? "terminated: " : "interrupted: ") << status.done << " of " << status.total
                   << " tasks done; resume with: gapmark run " << shell_word(o->spec)
                   << (status.shard.whole() ? "" : " --shard " + status.shard.text()) << " --resume "
                   << shell_word(spec.output.string()) << "\n";
-        return signal == SIGTERM ? 128 + SIGTERM : kInterrupted;
+        return stopped_exit_status();
       }
       if (!o->quiet) {
         print_warnings(status.warnings);

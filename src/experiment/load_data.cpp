@@ -76,11 +76,13 @@ LoadedData load_data(const ExperimentSpec& spec) {
     out.input_sha256.push_back(sha256_hex(text));
     const CsvTable csv = parse_csv(text, src.path.string());
     std::vector<Series> series = src.groups.empty() ? load_wide(csv, src, spec.source) : load_long(csv, src, spec.source);
-    for (const auto& [column, period] : src.column_periods)
+    for (const auto& column_period : src.column_periods) {
+      const std::string& column = column_period.first;
       if (std::none_of(series.begin(), series.end(), [&](const Series& s) { return s.name == column; }))
         throw InputError(spec.source + ": " + src.where + "/periods/" + printable(column),
                          "no series column " + quoted_for_message(column) + " in " + src.path.string() +
                              " (periods name the columns of this data entry)");
+    }
     for (Series& s : series) {
       set_period(s, src);
       check_observed(s, src);

@@ -59,6 +59,12 @@ check "report --force replaces it" "$GAPMARK" report out/results.json --out rep 
 "$GAPMARK" merge sh1 sh2 --out mer --quiet
 expect_fail 2 "mer: holds an earlier output \(results.json\); give --force" -- "$GAPMARK" merge sh1 sh2 --out mer
 check "merge --force replaces it" "$GAPMARK" merge sh1 sh2 --out mer --quiet --force
+"$GAPMARK" compare out/results.json rep/results.json --json cmp.json >/dev/null
+expect_fail 2 "cmp.json: exists already; give --force" -- "$GAPMARK" compare out/results.json rep/results.json --json cmp.json
+check "compare --json --force replaces it" "$GAPMARK" compare out/results.json rep/results.json --json cmp.json --force
+expect_fail 2 "is an input of this command" -- \
+  "$GAPMARK" compare out/results.json rep/results.json --json rep/results.json --force
+check "compare never wrote over its input" grep -q '"verdict"' rep/results.json
 expect_fail 2 "sh1: the output folder holds an input of the run, sh1/trials.jsonl" -- \
   "$GAPMARK" merge sh1 sh2 --out sh1 --force
 

@@ -63,4 +63,25 @@ check "the interrupted task is not recorded as failed" test "$(grep -c 'interrup
 "$GAPMARK" run stopped.json --allow-external --quiet --resume
 check "--resume finishes it" test -s stopped/results.json
 check "with no failed trial" test "$(grep -c '"status": "failed"' stopped/results.json)" -eq 0
+
+# --- Ctrl-C during a merge whose example windows run the outside program
+spec 600 merged >merged.json
+"$GAPMARK" run merged.json --allow-external --quiet --shard 1/2 --out part1
+"$GAPMARK" run merged.json --allow-external --quiet --shard 2/2 --out part2
+rm -f pids
+SLOW=1 "$GAPMARK" merge part1 part2 --spec merged.json --allow-external --out merged 2>err.txt &
+run=$!
+for _ in $(seq 200); do [ -s pids ] && break; sleep 0.05; done
+check "the merge started the program" test -s pids
+started=$(date +%s)
+kill -INT "$run"
+status=0
+wait "$run" || status=$?
+took=$(( $(date +%s) - started ))
+check "Ctrl-C ends the merge with 130" test "$status" -eq 130
+check "at once ($took s)" test "$took" -le 5
+check "it says the merge writes nothing" grep -q "the merge writes nothing" err.txt
+check "and wrote nothing" test ! -e merged/results.json
+left=$(alive)
+check "no process of the program is left after Ctrl-C during a merge (left: $left)" test -z "$left"
 finish
