@@ -7,6 +7,8 @@ packages=(
   build-essential cmake ninja-build git
   libeigen3-dev libboost-dev libcli11-dev nlohmann-json3-dev doctest-dev
   libnlopt-cxx-dev liblapack-dev libhowardhinnant-date-dev libssl-dev
+  # the Python module (python/) and its tests
+  pybind11-dev python3-dev python3-numpy python3-pandas python3-pytest
 )
 # Extra packages for optional checks, named on the command line:
 #   --browser  Chromium, for the report's browser test

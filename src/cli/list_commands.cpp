@@ -8,25 +8,11 @@
 #include "commands.hpp"
 #include "gapmark/fill/method.hpp"
 #include "gapmark/mask/scheme.hpp"
+#include "gapmark/registry_listing.hpp"
 #include "gapmark/score/metric.hpp"
 
 namespace gapmark::cli {
 namespace {
-
-std::string type_name(const ParamSpec& p) {
-  switch (p.type) {
-    case ParamType::Integer: return "integer";
-    case ParamType::Real: return "number";
-    case ParamType::Text: return "text";
-    case ParamType::Flag: return "true|false";
-    case ParamType::Choice: {
-      std::string s;
-      for (std::size_t i = 0; i < p.choices.size(); ++i) s += (i ? "|" : "") + p.choices[i];
-      return s;
-    }
-  }
-  return "";
-}
 
 std::string range_text(const ParamSpec& p) {
   if (p.type != ParamType::Integer && p.type != ParamType::Real) return "";
@@ -45,27 +31,9 @@ std::string needs_text(const Needs& n) {
   return s.empty() ? "-" : s;
 }
 
-template <class Interface>
-nlohmann::json to_json(const Entry<Interface>& e) {
-  nlohmann::json params = nlohmann::json::array();
-  for (const auto& p : Registry<Interface>::schema(e)) {
-    nlohmann::json j{{"name", p.name}, {"type", type_name(p)}, {"default", p.default_value}, {"help", p.help}};
-    if (p.type == ParamType::Integer || p.type == ParamType::Real) {
-      j["min"] = p.min > -1e300 ? nlohmann::json(p.min) : nlohmann::json(nullptr);
-      j["max"] = p.max < 1e300 ? nlohmann::json(p.max) : nlohmann::json(nullptr);
-    }
-    if (p.type == ParamType::Choice) j["choices"] = p.choices;
-    params.push_back(j);
-  }
-  return {{"name", e.name},
-          {"summary", e.summary},
-          {"needs", {{"period", e.needs.period}, {"siblings", e.needs.siblings}, {"min_observed", e.needs.min_observed}}},
-          {"params", params}};
-}
-
 void print_param(const ParamSpec& p, const char* empty_default) {
   std::cout << "    " << p.name << " = " << (p.default_value.empty() ? empty_default : p.default_value) << "  ("
-            << type_name(p);
+            << param_type_text(p);
   const std::string r = range_text(p);
   if (!r.empty()) std::cout << "; " << r;
   std::cout << ")  " << p.help << "\n";
@@ -108,9 +76,7 @@ void add_list(CLI::App& app, Action& action, const std::string& name, const std:
     action = [json_flag, with_needs] {
       const auto& registry = Registry<Interface>::global();
       if (*json_flag) {
-        nlohmann::json out = nlohmann::json::array();
-        for (const auto* e : registry.list()) out.push_back(to_json(*e));
-        std::cout << out.dump(2) << "\n";
+        std::cout << registry_json(registry).dump(2) << "\n";
       } else {
         print_table(registry, with_needs);
       }

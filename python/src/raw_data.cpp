@@ -1,0 +1,61 @@
+// gapmark._engine: the raw-data side on tables handed over as CSV text:
+// `profile` (what is missing, and how) and `regularize` (rows onto a grid).
+#include "bindings.hpp"
+#include "gapmark/data/profile.hpp"
+#include "gapmark/data/raw_table.hpp"
+#include "gapmark/data/regularize.hpp"
+#include "gapmark/error.hpp"
+#include "gapmark/table_io.hpp"
+
+namespace gapmark::python {
+namespace {
+
+using Choices = std::vector<std::pair<std::string, std::string>>;  // (column or "" for every column, choice)
+
+data::RawData raw_from_text(const std::string& csv, const std::string& source, const std::vector<std::string>& groups) {
+  data::RawReadOptions read;
+  read.group_columns = groups;
+  return data::parse_raw(parse_csv(csv, source), read);
+}
+
+py::tuple profile(const std::string& csv, const std::string& source, const std::vector<std::string>& groups,
+                  const std::string& step, std::size_t period) {
+  const data::RawData raw = raw_from_text(csv, source, groups);
+  data::ProfileOptions options;
+  if (!step.empty()) options.step = Step::parse(step, "step");
+  options.period = period;
+  const data::DataProfile p = data::profile_data(raw, options);
+  return py::make_tuple(data::profile_json(p), data::profile_text(p));
+}
+
+std::string regularize(const std::string& csv, const std::string& source, const std::vector<std::string>& groups,
+                       const std::string& step, const Choices& agg, const Choices& empty) {
+  const data::RawData raw = raw_from_text(csv, source, groups);
+  data::RegularizeOptions options;
+  options.step = Step::parse(step, "step");
+  for (const auto& choice : agg) {
+    const auto a = data::parse_aggregation(choice.second, "agg");
+    if (choice.first.empty()) options.default_aggregation = a;
+    else options.aggregation[choice.first] = a;
+  }
+  for (const auto& choice : empty) {
+    const auto e = data::parse_empty_policy(choice.second, "empty");
+    if (!choice.first.empty()) options.empty[choice.first] = e;
+  }
+  for (const auto& choice : empty)  // a policy for every column, under the named ones
+    if (choice.first.empty())
+      for (const auto& v : raw.value_columns) options.empty.emplace(v, data::parse_empty_policy(choice.second, "empty"));
+  const data::Panel panel = data::regularize(raw, options);
+  return data::panel_csv(panel, groups.empty() ? data::PanelLayout::Wide : data::PanelLayout::Long);
+}
+
+}  // namespace
+
+void add_raw_data(py::module_& m) {
+  m.def("_profile", &profile, py::arg("csv"), py::arg("source"), py::arg("groups"), py::arg("step"),
+        py::arg("period"), "(profile JSON, profile text) of raw rows given as CSV text");
+  m.def("_regularize", &regularize, py::arg("csv"), py::arg("source"), py::arg("groups"), py::arg("step"),
+        py::arg("agg"), py::arg("empty"), "The regular panel, as CSV text, of raw rows given as CSV text");
+}
+
+}  // namespace gapmark::python
