@@ -19,7 +19,11 @@ def _rows_csv(frame):
         raise InputError("frame: expected a pandas DataFrame")
     if not isinstance(frame.index, _pd.RangeIndex):
         frame = frame.reset_index()
-    return frame.to_csv(index=False, date_format="%Y-%m-%dT%H:%M:%S", lineterminator="\n")
+    frame = frame.copy()
+    for column in frame.columns:  # times in ISO 8601, with their UTC offset when they have one
+        if _pd.api.types.is_datetime64_any_dtype(frame[column]):
+            frame[column] = [("" if t is _pd.NaT else t.isoformat()) for t in frame[column]]
+    return frame.to_csv(index=False, lineterminator="\n")
 
 
 def _groups(group):
