@@ -28,6 +28,8 @@ cells set to 0. The stored values are:
                  each fit warm-starting the next
   iterations     steps per lambda (a step that changes nothing ends it early)
   z              the estimate after `iterations` steps (standardised scale)
+  rank_kept      the components the last step kept (singular values above
+                 lambda, within the rank cap): what the method's fit records
   filled         column 0 with its gaps filled, on the original scale
 
 All data are invented by this script (formulas and a seeded generator): a
@@ -60,8 +62,10 @@ def standardise(x):
 
 
 def soft_impute(x, lam, max_rank, iterations, z):
-    """`iterations` steps from z, stopping early only when a step changes nothing."""
+    """`iterations` steps from z, stopping early only when a step changes nothing.
+    Returns the estimate and the number of components the last step kept."""
     observed = ~np.isnan(x)
+    kept = 0
     for _ in range(iterations):
         w = np.where(observed, x, z)
         u, d, vt = np.linalg.svd(w, full_matrices=False)
@@ -69,11 +73,12 @@ def soft_impute(x, lam, max_rank, iterations, z):
         if max_rank:
             keep &= np.arange(d.size) < max_rank
         z_new = (u[:, keep] * (d[keep] - lam)) @ vt[keep]
+        kept = int(keep.sum())
         change = np.linalg.norm(z_new - z)
         z = z_new
         if change == 0.0:
             break
-    return z
+    return z, kept
 
 
 def lambda_grid(top, count, smallest_ratio):
@@ -108,8 +113,9 @@ def make_case(name, x, fraction, max_rank, iterations):
     else:
         lambdas = lambda_grid(lam_max, 20, 1e-3) + [0.0]
     z = np.zeros_like(xs)
+    kept = 0
     for lam in lambdas:
-        z = soft_impute(xs, lam, max_rank, iterations, z)
+        z, kept = soft_impute(xs, lam, max_rank, iterations, z)
     filled = np.where(np.isnan(x[:, 0]), z[:, 0] * scale[0] + centre[0], x[:, 0])
     return {
         "name": name,
@@ -121,6 +127,7 @@ def make_case(name, x, fraction, max_rank, iterations):
         "lambda_max": float(lam_max),
         "lambdas": [float(v) for v in lambdas],
         "z": to_list(z),
+        "rank_kept": kept,
         "filled": to_list(filled),
     }
 

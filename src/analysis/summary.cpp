@@ -384,6 +384,7 @@ Summary summarize(const ResultSet& results) {
   }
   compare_series(summary);
   power_warnings(summary);
+  summary.fits = summarize_fits(results, summary.warnings);
   summary.verdict = decide_verdict(summary, results);
   return summary;
 }
@@ -455,7 +456,8 @@ nlohmann::json summary_to_json(const Summary& summary, const ResultSet& results)
           {"equivalence", summary.equivalence},
           {"groups", groups},
           {"excluded", excluded},
-          {"across_series", across}};
+          {"across_series", across},
+          {"fits", fits_to_json(summary.fits)}};
 }
 
 }  // namespace gapmark

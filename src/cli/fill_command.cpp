@@ -1,20 +1,51 @@
 // `gapmark fill`: fill the real gaps of a CSV with one method.
+#include <cmath>
+#include <filesystem>
 #include <iostream>
 
 #include "commands.hpp"
 #include "gapmark/error.hpp"
 #include "gapmark/fill/fill_table.hpp"
+#include "gapmark/report/table_text.hpp"
 #include "gapmark/wide_write.hpp"
 #include "output_rules.hpp"
 #include "table_options.hpp"
 
 namespace gapmark::cli {
 
+namespace {
+
+/// The --fit file: per selected column, its gaps, what was filled, and the
+/// method's fit (null for a method without a model, or when it failed).
+nlohmann::json fits_json(const std::string& method, const std::vector<FillTableReport>& reports) {
+  nlohmann::json columns = nlohmann::json::array();
+  for (const auto& r : reports)
+    columns.push_back({{"column", r.column},
+                       {"gaps", r.gaps},
+                       {"filled", r.filled},
+                       {"fit", r.fit.empty() ? nlohmann::json(nullptr) : fit_to_json(r.fit)},
+                       {"failure", r.failure.empty() ? nlohmann::json(nullptr) : nlohmann::json(r.failure)}});
+  return {{"format", "gapmark-fit"}, {"schema_version", 1}, {"method", method}, {"columns", columns}};
+}
+
+/// One line for people: the model, its estimates and its likelihood, 4 significant digits.
+std::string fit_line(const ModelFit& fit) {
+  std::string line = fit.model;
+  for (const auto& p : fit.parameters) line += ", " + p.first + " " + short_number(p.second);
+  if (std::isfinite(fit.log_likelihood)) line += ", log-likelihood " + short_number(fit.log_likelihood);
+  if (!fit.converged) line += " (not converged)";
+  if (fit.at_bound) line += " (an estimate on a bound of its search)";
+  return line;
+}
+
+}  // namespace
+
 void add_fill(CLI::App& app, Action& action) {
   struct Options {
     TableOptions table;
     std::string method;
     std::string out;
+    std::string fit;
     bool force = false;
   };
   auto o = std::make_shared<Options>();
@@ -22,25 +53,38 @@ void add_fill(CLI::App& app, Action& action) {
   o->table.declare(*cmd);
   cmd->add_option("--method,-m", o->method, "Method and parameters, e.g. linear or kalman:model=trend")->required();
   cmd->add_option("--out,-o", o->out, "Output CSV")->required();
+  cmd->add_option("--fit", o->fit,
+                  "Also write what the method estimated per column (variances, coefficients, lambda and rank, "
+                  "log-likelihood, AICc, convergence) to this JSON file; the method then runs on columns with "
+                  "nothing to fill too");
   add_force_flag(*cmd, o->force);
   cmd->callback([&action, o] {
     action = [o] {
       check_output_file(o->out, o->force);
       check_file_is_no_input(o->out, {o->table.input});
+      if (!o->fit.empty()) {
+        if (std::filesystem::weakly_canonical(o->fit) == std::filesystem::weakly_canonical(o->out))
+          throw InputError("--fit", "names the same file as --out ('" + o->out + "'); give the fit its own file");
+        check_output_file(o->fit, o->force);
+        check_file_is_no_input(o->fit, {o->table.input, o->out});
+      }
       auto method = MethodRegistry::global().bind(CallSpec::parse(o->method, "--method"), "--method");
       WideTable table = o->table.read();
       auto columns = select_columns(table, o->table.columns);
-      auto result = fill_table(table, columns, method, o->table.period);
+      auto result = fill_table(table, columns, method, o->table.period, !o->fit.empty());
       std::vector<ExtraColumn> extra;
       for (std::size_t k = 0; k < columns.size(); ++k)
         extra.emplace_back(table.columns[columns[k]] + "_filled", result.flags[k]);
-      write_file_atomically(o->out, write_wide_csv(table, extra));
+      const std::string csv = write_wide_csv(table, extra);
+      if (!o->fit.empty()) write_file_atomically(o->fit, fits_json(method.label, result.reports).dump(2) + "\n");
+      write_file_atomically(o->out, csv);
       bool complete = true;
       for (const auto& r : result.reports) {
         std::cerr << r.column << ": filled " << r.filled << " of " << r.gaps << " gaps";
         if (r.clipped) std::cerr << " (" << r.clipped << " moved into the bounds)";
         if (!r.failure.empty()) std::cerr << " (" << method.label << " failed: " << r.failure << ")";
         std::cerr << "\n";
+        if (!o->fit.empty() && !r.fit.empty()) std::cerr << "  fit: " << fit_line(r.fit) << "\n";
         complete = complete && r.filled == r.gaps;
       }
       if (!complete) std::cerr << "warning: some gaps remain empty; try another method or edges=nearest\n";

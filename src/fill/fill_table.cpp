@@ -8,7 +8,7 @@
 namespace gapmark {
 
 FillTableOutput fill_table(WideTable& table, const std::vector<std::size_t>& columns,
-                           const Bound<FillMethod>& method, std::size_t period) {
+                           const Bound<FillMethod>& method, std::size_t period, bool fit_complete_columns) {
   FillTableOutput out;
   const std::vector<std::vector<double>> original = table.values;
   for (std::size_t c : columns) {
@@ -25,11 +25,12 @@ FillTableOutput fill_table(WideTable& table, const std::vector<std::size_t>& col
       request.sibling_names.push_back(table.columns[s]);
     }
     for (double v : original[c]) report.gaps += std::isnan(v) ? 1 : 0;
-    if (report.gaps > 0) {
+    if (report.gaps > 0 || fit_complete_columns) {
       try {
         check_needs(method, request);
         FillResult result = method.impl->fill(request);
         report.clipped = result.clipped;
+        report.fit = std::move(result.fit);
         if (result.values.size() != original[c].size())
           throw MethodFailure("returned the wrong number of values");
         for (std::size_t i = 0; i < result.values.size(); ++i) {

@@ -76,6 +76,8 @@ public:
     result.fit.log_likelihood =
         fit.log_likelihood - static_cast<double>(smooth.likelihood.effective()) * std::log(data.scale);
     result.fit.iterations = fit.evaluations;
+    result.fit.converged = fit.converged;
+    result.fit.at_bound = fit.at_bound;
     const double n_eff = static_cast<double>(smooth.likelihood.effective()), k = static_cast<double>(names.size());
     if (n_eff - k - 1 > 0)
       result.fit.aicc = -2 * result.fit.log_likelihood + 2 * k + 2 * k * (k + 1) / (n_eff - k - 1);

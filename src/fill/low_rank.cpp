@@ -134,6 +134,7 @@ public:
     SoftImputeOptions options{.lambda = 0.0, .max_rank = rank_, .tolerance = tolerance_,
                               .max_iterations = max_iterations_};
     Eigen::MatrixXd start = Eigen::MatrixXd::Zero(x.rows(), x.cols());
+    bool chose_at_grid_end = false;
     if (rank_ == 0 && lambda_fraction_ == 0.0) {
       const std::size_t observed = static_cast<std::size_t>((!x.array().isNaN()).count());
       if (observed < kMinObservedForSelection)
@@ -144,6 +145,7 @@ public:
                                                 data_seed(columns), options, kPatience);
       options.lambda = sel.lambdas.at(sel.best);
       start = sel.best_z;
+      chose_at_grid_end = sel.best == 0 || sel.best + 1 == kGridSize;
     } else if (lambda_fraction_ == 0.0) {
       // Rank only: the rank-capped soft-thresholded path down to lambda 0,
       // each fit warm-starting the next.
@@ -153,10 +155,20 @@ public:
     } else {
       options.lambda = lambda_fraction_ * lambda_max(x);
     }
+    const double top = lambda_max(x);
     const SoftImputeFit fit = soft_impute(x, options, start);
     if (!fit.z.allFinite()) throw MethodFailure("the completion diverged (non-finite values)");
 
     FillResult result;
+    // On record: lambda as the fraction of lambda_max given or chosen, the
+    // components the final step kept, and whether the updates met the tolerance.
+    result.fit.model = "soft-thresholded SVD, " + std::to_string(columns.size()) + " series";
+    result.fit.parameters = {{"lambda", top > 0 ? options.lambda / top : 0.0},
+                             {"rank", static_cast<double>(fit.rank)}};
+    result.fit.iterations = fit.iterations;
+    result.fit.converged = fit.converged;
+    // lambda chosen at an end of its grid: the best lies at or beyond the searched range
+    result.fit.at_bound = chose_at_grid_end;
     result.values.assign(request.values.begin(), request.values.end());
     for (std::size_t i = 0; i < n; ++i)
       if (std::isnan(result.values[i]))

@@ -90,7 +90,8 @@ struct Search {
   }
 
   /// One local search from `start` (variances in any common unit).
-  void run(const std::vector<double>& start, double x_tolerance, double f_tolerance, double step,
+  /// False when it stopped on its budget of passes rather than its tolerances.
+  bool run(const std::vector<double>& start, double x_tolerance, double f_tolerance, double step,
            std::size_t max_evaluations) {
     reference = static_cast<std::size_t>(std::max_element(start.begin(), start.end()) - start.begin());
     std::vector<double> x;
@@ -107,12 +108,25 @@ struct Search {
     opt.set_initial_step(step);
     double value = 0;
     try {
-      opt.optimize(x, value);
+      return opt.optimize(x, value) != nlopt::MAXEVAL_REACHED;
     } catch (const std::exception&) {
       // Round-off limits and the like: the best point seen is kept either way.
+      return true;
     }
   }
 };
+
+/// A variance ratio within this of the search bound counts as on the bound.
+constexpr double kAtBound = 0.01;
+
+/// Whether a relative variance (the search's reference is 1) is on the bound
+/// of its log ratio: an estimate at zero, or the reference's, as far as the
+/// search can tell.
+bool ratio_at_bound(const std::vector<double>& relative) {
+  for (double r : relative)
+    if (!(r > 0) || std::abs(std::log(r)) >= kBound - kAtBound) return true;
+  return false;
+}
 
 /// Grid of log ratios screened by the one-ratio search.
 constexpr std::size_t kRatioGrid = 9;
@@ -129,6 +143,7 @@ struct RatioFit {
   std::vector<double> relative;
   double log_likelihood = -std::numeric_limits<double>::infinity();
   std::size_t evaluations = 0;
+  bool converged = true;  ///< Brent stopped on its tolerance within its budget
 };
 
 RatioFit fit_one_ratio(const StructuralModel& model, std::span<const double> z, const FitOptions& options) {
@@ -167,6 +182,7 @@ RatioFit fit_one_ratio(const StructuralModel& model, std::span<const double> z, 
   const double lo = grid[best == 0 ? 0 : best - 1];
   const double hi = grid[best + 1 == kRatioGrid ? best : best + 1];
   boost::math::tools::brent_find_minima(negative, lo, hi, bits, iterations);
+  fit.converged = iterations < options.max_evaluations;
   return fit;
 }
 
@@ -238,6 +254,7 @@ FitResult fit_variances(const StructuralModel& model, std::span<const double> y,
     result.variances.assign(model.variance_count(), kExactFitVariance * scale * scale);
     result.log_likelihood = std::numeric_limits<double>::infinity();
     result.evaluations = 1;
+    result.at_bound = true;
     return result;
   }
 
@@ -248,6 +265,8 @@ FitResult fit_variances(const StructuralModel& model, std::span<const double> y,
     result = scaled_fit(model, z, ratio.relative, ratio.log_likelihood, scale);
     result.evaluations += ratio.evaluations;
     result.starts = 1;
+    result.converged = ratio.converged;
+    result.at_bound = ratio_at_bound(ratio.relative);
     return result;
   }
 
@@ -260,13 +279,15 @@ FitResult fit_variances(const StructuralModel& model, std::span<const double> y,
   if (search.best_relative.empty())
     throw MethodFailure("the " + model.name() + " model's likelihood is not finite at any starting point");
   const std::vector<double> best_start = search.best_relative;
-  search.run(best_start, options.x_tolerance, options.f_tolerance, 0.1, options.max_evaluations);
+  const bool converged = search.run(best_start, options.x_tolerance, options.f_tolerance, 0.1, options.max_evaluations);
   ++result.starts;
 
   const std::size_t starts = result.starts;
   result = scaled_fit(model, z, search.best_relative, search.best, scale);
   result.evaluations += search.evaluations;
   result.starts = starts;
+  result.converged = converged;
+  result.at_bound = ratio_at_bound(search.best_relative);
   return result;
 }
 

@@ -10,6 +10,7 @@
 #include <set>
 
 #include "gapmark/number_format.hpp"
+#include "gapmark/report/fit_text.hpp"
 #include "gapmark/report/html_charts.hpp"
 #include "gapmark/report/html_style.hpp"
 #include "gapmark/report/reporter.hpp"
@@ -340,6 +341,24 @@ std::string example_section(const nlohmann::json* example, StyleMap& styles) {
   return out;
 }
 
+/// The fitted models of a series' model-based methods over the replicates.
+std::string fits_table(const Summary& summary, const std::string& label) {
+  std::string rows;
+  for (const auto& f : summary.fits) {
+    if (f.series != label) continue;
+    const bool flagged = f.at_bound > 0 || f.not_converged > 0;
+    rows += "<tr><td class=\"name\">" + escape(f.method) + "</td><td>" + std::to_string(f.fits) + "</td><td>" +
+            escape(models_text(f)) + "</td><td>" + escape(estimates_text(f)) + "</td><td>" +
+            escape(range_text(f.log_likelihood)) + "</td><td" + (flagged ? " class=\"failed\"" : "") + ">" +
+            std::to_string(f.at_bound) + " / " + std::to_string(f.not_converged) + "</td></tr>";
+  }
+  if (rows.empty()) return "";
+  return "<h3>Fitted models</h3><div class=\"scroll\"><table><caption>Estimates over the replicates (every scheme "
+         "and rate): median [min, max]</caption><thead><tr><th class=\"name\">method</th><th>fits</th><th>model"
+         "</th><th>estimates</th><th>log-likelihood</th><th>on a bound / not converged</th></tr></thead><tbody>" +
+         rows + "</tbody></table></div>";
+}
+
 std::string series_section(const ResultSet& results, const Summary& summary, const std::string& label,
                            std::size_t index) {
   const auto groups = groups_of(summary, label);
@@ -370,6 +389,7 @@ std::string series_section(const ResultSet& results, const Summary& summary, con
     out += gap_chart(results, *g, shown, styles);
     out += "</details>";
   }
+  out += fits_table(summary, label);
   return out + "</section>";
 }
 

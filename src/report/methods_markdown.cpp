@@ -14,6 +14,7 @@
 #include "gapmark/mask/scheme.hpp"
 #include "gapmark/number_format.hpp"
 #include "gapmark/params.hpp"
+#include "gapmark/report/fit_text.hpp"
 #include "gapmark/report/references.hpp"
 #include "gapmark/report/reporter.hpp"
 #include "gapmark/report/table_text.hpp"
@@ -167,6 +168,36 @@ std::string results_section(const ResultSet& results, const Summary& summary) {
   return out;
 }
 
+/// Fitted models over the replicates, per series and method, with the fits
+/// that ended on a bound or did not converge named.
+std::string fits_section(const Summary& summary) {
+  if (summary.fits.empty()) return "";
+  std::string out = "\n## Fitted models\n\nThe model-based methods estimated their parameters anew on every "
+                    "masked series. Over the replicates of each series (all schemes and rates together), the "
+                    "median and range [min, max] of each estimate and of the log-likelihood were:\n";
+  std::string series;
+  for (const auto& f : summary.fits) {
+    if (f.series != series) {
+      series = f.series;
+      out += "\n**" + markdown_text(series) + "**\n\n| method | fits | model | estimates | log-likelihood | on a bound | "
+             "not converged |\n|---|--:|---|---|---|--:|--:|\n";
+    }
+    out += "| " + markdown_code(f.method) + " | " + std::to_string(f.fits) + " | " + markdown_text(models_text(f)) +
+           " | " + markdown_text(estimates_text(f)) + " | " + range_text(f.log_likelihood) + " | " +
+           std::to_string(f.at_bound) + " | " + std::to_string(f.not_converged) + " |\n";
+  }
+  std::vector<std::string> flagged;
+  for (const auto& w : summary.warnings)
+    if (w.code == "fit-at-bound" || w.code == "fit-not-converged") flagged.push_back(markdown_text(w.where) + ": " + w.message);
+  if (!flagged.empty()) {
+    out += "\nFits to check: " + flagged.front();
+    for (std::size_t i = 1; i < flagged.size(); ++i) out += "; " + flagged[i];
+    out += ". A variance estimated at zero often means the model needs no such component; an ARIMA coefficient "
+           "at the edge of stationarity or invertibility suggests another difference or a simpler order.\n";
+  }
+  return out;
+}
+
 /// Limitations generated from the run.
 std::string limitations_section(const ResultSet& results, const Summary& summary, double max_rate) {
   std::string out = "\n## Limitations\n\n";
@@ -299,6 +330,7 @@ public:
 
     out += analysis_section(results, summary, uses);
     out += results_section(results, summary);
+    out += fits_section(summary);
     out += limitations_section(results, summary, max_rate);
 
     // Reproducibility.

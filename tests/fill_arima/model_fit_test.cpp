@@ -86,6 +86,25 @@ TEST_CASE("fit on record: kalman's local level on the full Nile gives the publis
   CHECK(parameter(r.fit, "variance_level") == doctest::Approx(1469.1).epsilon(1e-3));
   CHECK(std::isfinite(r.fit.log_likelihood));
   CHECK(std::isfinite(r.fit.aicc));
+  CHECK(r.fit.converged);
+  CHECK_FALSE(r.fit.at_bound);  // both variances well inside the search's ratio bounds
+}
+
+TEST_CASE("fit on record: a variance estimated at zero is flagged as on a bound") {
+  // An invented straight line with small noise: the local linear trend needs
+  // no level or slope disturbance, so those variances go to the bottom of
+  // their search range (ratio 1e-10 to the irregular's).
+  std::vector<double> y(120);
+  for (std::size_t t = 0; t < y.size(); ++t) y[t] = 2.0 + 0.5 * static_cast<double>(t) + 0.1 * std::sin(1.7 * t * t);
+  y[40] = y[41] = std::nan("");
+  TimeAxis axis = TimeAxis::index(y.size());
+  FillRequest req{.values = y, .axis = &axis};
+  const FillResult r = make("kalman", {{"model", "trend"}})->fill(req);
+  MESSAGE("variances: irregular " << parameter(r.fit, "variance_irregular") << ", level "
+                                  << parameter(r.fit, "variance_level") << ", slope " << parameter(r.fit, "variance_slope"));
+  CHECK(parameter(r.fit, "variance_slope") < 1e-8 * parameter(r.fit, "variance_irregular"));
+  CHECK(r.fit.at_bound);
+  CHECK(r.fit.converged);
 }
 
 TEST_CASE("fit on record: arima's fit is the fitted model's") {

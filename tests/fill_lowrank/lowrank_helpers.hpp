@@ -90,7 +90,8 @@ inline Bound<FillMethod> bind_method(const std::string& call) {
 }
 
 /// Fills column `target` with the other columns as siblings.
-inline std::vector<double> run_low_rank(const std::string& call, const Columns& cols, std::size_t target = 0) {
+/// The method's whole result (values and fit) on column `target`, the others its siblings.
+inline FillResult fill_low_rank(const std::string& call, const Columns& cols, std::size_t target = 0) {
   const auto bound = bind_method(call);
   const TimeAxis axis = TimeAxis::index(cols[target].size());
   FillRequest request;
@@ -102,7 +103,11 @@ inline std::vector<double> run_low_rank(const std::string& call, const Columns& 
     request.sibling_names.push_back("s" + std::to_string(j));
   }
   check_needs(bound.entry->needs, request);
-  return bound.impl->fill(request).values;
+  return bound.impl->fill(request);
+}
+
+inline std::vector<double> run_low_rank(const std::string& call, const Columns& cols, std::size_t target = 0) {
+  return fill_low_rank(call, cols, target).values;
 }
 
 /// Largest |filled - truth| over the cells missing in `holed`.

@@ -78,8 +78,20 @@ TEST_CASE("the low-rank method agrees with the numpy reference end to end") {
     std::string call = "low-rank:tolerance=0,max_iterations=" + std::to_string(c["iterations"].get<int>());
     if (c["rank"].get<int>() > 0) call += ",rank=" + std::to_string(c["rank"].get<int>());
     if (c["lambda_fraction"].get<double>() > 0) call += ",lambda=" + format_double(c["lambda_fraction"].get<double>());
-    const auto got = run_low_rank(call, cols);
+    const FillResult result = fill_low_rank(call, cols);
+    const auto& got = result.values;
     REQUIRE(got.size() == expected.size());
+    // the fit on record: the lambda given (as a fraction of lambda_max; 0 on
+    // the rank-only path's last step) and the components the last step kept,
+    // as the numpy iteration counts them
+    CHECK(result.fit.model == "soft-thresholded SVD, " + std::to_string(cols.size()) + " series");
+    REQUIRE(result.fit.parameters.size() == 2);
+    CHECK(result.fit.parameters[0].first == "lambda");
+    CHECK(result.fit.parameters[0].second == doctest::Approx(c["lambda_fraction"].get<double>()).epsilon(1e-12));
+    CHECK(result.fit.parameters[1].first == "rank");
+    CHECK(result.fit.parameters[1].second == c["rank_kept"].get<double>());
+    CHECK(result.fit.iterations > 0);
+    CHECK_FALSE(result.fit.at_bound);
     double scale = 0.0;
     for (double v : expected) scale = std::max(scale, std::abs(v));
     std::size_t gaps = 0;

@@ -52,6 +52,35 @@ TEST_CASE("with neither rank nor lambda, the chosen lambda fills about as well a
   CHECK(e_chosen < 1.5 * e_best);
   CHECK(e_chosen < 0.5 * e_mean);
 
+  SUBCASE("the chosen lambda and rank are on record") {
+    const FillResult r = fill_low_rank("low-rank", holed);
+    REQUIRE(r.fit.parameters.size() == 2);
+    const double lambda = r.fit.parameters[0].second, rank = r.fit.parameters[1].second;
+    MESSAGE("chosen lambda " << lambda << " of lambda_max, rank " << rank);
+    // On these nearly exactly low-rank data the held-out error keeps falling
+    // down to the grid's smallest lambda (1/1000 of the training matrix's
+    // lambda_max, a little below 1/1000 of the whole matrix's): the choice is
+    // at the end of the grid, and the record says so.
+    CHECK(lambda > 0);
+    CHECK(lambda < 1.1e-3);
+    CHECK(r.fit.at_bound);
+    // five noisy series built from a level and two factors: at least the two
+    // factors survive the threshold, and never more components than series
+    CHECK(rank >= 2);
+    CHECK(rank <= 5);
+    CHECK(r.fit.converged);
+  }
+
+  SUBCASE("a lambda chosen inside the grid is not flagged") {
+    // much noisier data: the held-out error turns up before the grid's end
+    const Columns noisy = factor_matrix(300, kLevel, kA, kB, 1.5, 23);
+    const FillResult r = fill_low_rank("low-rank", with_gaps(noisy, 0.2, 2, 24));
+    REQUIRE(r.fit.parameters.size() == 2);
+    MESSAGE("noisy data: chosen lambda " << r.fit.parameters[0].second << ", rank " << r.fit.parameters[1].second);
+    CHECK(r.fit.parameters[0].second > 1.1e-3);
+    CHECK_FALSE(r.fit.at_bound);
+  }
+
   SUBCASE("the same data give the same bytes") {
     const auto again = run_low_rank("low-rank", holed);
     CHECK(std::memcmp(again.data(), chosen.data(), chosen.size() * sizeof(double)) == 0);

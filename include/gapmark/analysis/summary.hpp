@@ -12,6 +12,7 @@
 #include <string>
 #include <vector>
 
+#include "gapmark/analysis/fit_summary.hpp"
 #include "gapmark/analysis/verdict.hpp"
 #include "gapmark/experiment/record.hpp"
 
@@ -104,7 +105,8 @@ struct Summary {
   std::vector<CellGroup> groups;
   std::vector<ExcludedCondition> excluded;
   std::vector<AcrossSeries> across;
-  std::vector<Warning> warnings;  ///< from the analysis (power, few series, excluded conditions)
+  std::vector<FitSummary> fits;   ///< fitted parameters over the replicates, per series and method
+  std::vector<Warning> warnings;  ///< from the analysis (power, few series, excluded conditions, fits)
   RunVerdict verdict;                ///< per series, read once from the numbers above
 };
 

@@ -200,6 +200,8 @@ struct FitResult {
   double log_likelihood = 0;      ///< diffuse log-likelihood there
   std::size_t evaluations = 0;    ///< filter passes used
   std::size_t starts = 0;         ///< local searches run
+  bool converged = true;          ///< the final search stopped on its tolerances, not its budget
+  bool at_bound = false;          ///< a variance ratio ended on its search bound (a variance at about zero)
 };
 
 /// Maximum-likelihood variances. The common scale is concentrated out; the
