@@ -4,6 +4,7 @@
 #include <algorithm>
 #include <cmath>
 #include <map>
+#include <string>
 
 #include "gapmark/stats/bootstrap.hpp"
 
@@ -33,6 +34,44 @@ nlohmann::json range_to_json(const EstimateRange& r) {
 }
 
 std::string count_of(std::size_t k, std::size_t n) { return std::to_string(k) + " of " + std::to_string(n); }
+
+/// What a fit on a bound usually means for this method (by its name).
+std::string bound_hint(const std::string& method) {
+  const std::string name = method.substr(0, method.find(':'));
+  if (name == "kalman")
+    return "a variance estimated at zero: the model needs no such component (often no measurement noise, a fixed "
+           "slope or season); harmless for the fill, but say so when reporting the model";
+  if (name == "arima")
+    return "a partial autocorrelation at the edge of stationarity or invertibility: another difference or a "
+           "simpler order may fit better";
+  if (name == "low-rank")
+    return "lambda chosen at an end of its grid: the held-out error was still falling there; give rank or lambda "
+           "to choose yourself";
+  return "an estimate at the limit of what the method searches; see the fitted models table";
+}
+
+/// One warning per method and kind, listing the series with their counts.
+void fit_warnings(const std::vector<FitSummary>& fits, std::vector<Warning>& warnings) {
+  std::vector<std::string> methods;
+  for (const auto& s : fits)
+    if (std::find(methods.begin(), methods.end(), s.method) == methods.end()) methods.push_back(s.method);
+  for (const auto& method : methods) {
+    std::string bound, budget;
+    for (const auto& s : fits) {
+      if (s.method != method) continue;
+      if (s.at_bound) bound += (bound.empty() ? "" : ", ") + count_of(s.at_bound, s.fits) + " on " + s.series;
+      if (s.not_converged)
+        budget += (budget.empty() ? "" : ", ") + count_of(s.not_converged, s.fits) + " on " + s.series;
+    }
+    if (!bound.empty())
+      add_warning(warnings, {"fit-at-bound", method, "fits ended with an estimate on a bound of the search: " + bound,
+                             bound_hint(method)});
+    if (!budget.empty())
+      add_warning(warnings, {"fit-not-converged", method,
+                             "fits stopped on their budget of iterations before meeting their tolerance: " + budget,
+                             "their estimates may be off the optimum; a simpler model can help"});
+  }
+}
 
 }  // namespace
 
@@ -75,23 +114,9 @@ std::vector<FitSummary> summarize_fits(const ResultSet& results, std::vector<War
                      [](const auto& a, const auto& b) { return a.second > b.second; });
     for (const auto& name : names) s.estimates.push_back(range_of(name, values[name]));
     s.log_likelihood = range_of("log_likelihood", log_likelihoods);
-    const std::string where = s.method + " on " + s.series;
-    if (s.at_bound > 0)
-      add_warning(warnings,
-                  {"fit-at-bound", where,
-                   count_of(s.at_bound, s.fits) + " fits ended with an estimate on a bound of its search",
-                   "a variance at zero often means the model needs no such component (no measurement noise, a "
-                   "fixed slope); an ARIMA coefficient at the edge of stationarity or invertibility suggests "
-                   "another difference or a simpler order; lambda at an end of its grid, a given rank or lambda; "
-                   "see the fitted models table"});
-    if (s.not_converged > 0)
-      add_warning(warnings, {"fit-not-converged", where,
-                             count_of(s.not_converged, s.fits) +
-                                 " fits stopped on their budget of iterations before meeting their tolerance",
-                             "their estimates may be off the optimum; a simpler model or more iterations "
-                             "(low-rank: max_iterations) can help"});
     out.push_back(std::move(s));
   }
+  fit_warnings(out, warnings);
   return out;
 }
 

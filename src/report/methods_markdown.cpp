@@ -186,15 +186,11 @@ std::string fits_section(const Summary& summary) {
            " | " + markdown_text(estimates_text(f)) + " | " + range_text(f.log_likelihood) + " | " +
            std::to_string(f.at_bound) + " | " + std::to_string(f.not_converged) + " |\n";
   }
-  std::vector<std::string> flagged;
+  std::string flagged;
   for (const auto& w : summary.warnings)
-    if (w.code == "fit-at-bound" || w.code == "fit-not-converged") flagged.push_back(markdown_text(w.where) + ": " + w.message);
-  if (!flagged.empty()) {
-    out += "\nFits to check: " + flagged.front();
-    for (std::size_t i = 1; i < flagged.size(); ++i) out += "; " + flagged[i];
-    out += ". A variance estimated at zero often means the model needs no such component; an ARIMA coefficient "
-           "at the edge of stationarity or invertibility suggests another difference or a simpler order.\n";
-  }
+    if (w.code == "fit-at-bound" || w.code == "fit-not-converged")
+      flagged += "\n- " + markdown_code(w.where) + ": " + markdown_text(w.message) + " (" + markdown_text(w.hint) + ").";
+  if (!flagged.empty()) out += "\nFits to check:\n" + flagged + "\n";
   return out;
 }
 

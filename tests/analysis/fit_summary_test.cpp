@@ -87,10 +87,11 @@ TEST_CASE("fit summaries: median and range per series and method, models counted
   CHECK(fits[1].not_converged == 1);
   REQUIRE(warnings.size() == 2);
   CHECK(warnings[0].code == "fit-at-bound");
-  CHECK(warnings[0].where == "m on s");
-  CHECK(warnings[0].message.find("1 of 4 fits") == 0);
+  CHECK(warnings[0].where == "m");
+  CHECK(warnings[0].message == "fits ended with an estimate on a bound of the search: 1 of 4 on s");
   CHECK(warnings[1].code == "fit-not-converged");
-  CHECK(warnings[1].where == "m on t");
+  CHECK(warnings[1].where == "m");
+  CHECK(warnings[1].message.find(": 1 of 1 on t") != std::string::npos);
 
   CHECK(range_text(s.estimates[0]) == "2.5 [1, 10]");
   CHECK(range_text(s.estimates[1]) == "20");
@@ -119,7 +120,8 @@ TEST_CASE("fit summaries: one answer in results.json, methods.md and report.html
   const std::string md = render("methods-md");
   CHECK(md.find("## Fitted models") != std::string::npos);
   CHECK(md.find("| `m` | 4 | A (3), B (1) | a 2.5 [1, 10]; b 20 | -12 [-14, -10] | 1 | 0 |") != std::string::npos);
-  CHECK(md.find("m on t: 1 of 1 fits stopped on their budget") != std::string::npos);
+  CHECK(md.find("- `m`: fits stopped on their budget of iterations before meeting their tolerance: 1 of 1 on t") !=
+        std::string::npos);
   const std::string html = render("report-html");
   CHECK(html.find("<h3>Fitted models</h3>") != std::string::npos);
   CHECK(html.find("a 2.5 [1, 10]; b 20") != std::string::npos);

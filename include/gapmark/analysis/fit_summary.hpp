@@ -34,8 +34,8 @@ struct FitSummary {
 };
 
 /// Per (series, method) with at least one fit, in the order the trials give
-/// them. Adds one warning per (series, method) whose fits hit a bound and
-/// one whose fits did not converge.
+/// them. Adds, per method, one warning when fits hit a bound and one when
+/// fits did not converge, each listing the series and counts.
 std::vector<FitSummary> summarize_fits(const ResultSet& results, std::vector<Warning>& warnings);
 
 /// "fits" in results.json's summary.
