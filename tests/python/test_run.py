@@ -123,3 +123,17 @@ def test_a_spec_that_starts_programs_needs_consent(spec_folder):
     (spec_folder / "ext.json").write_text(json.dumps(spec))
     with pytest.raises(gapmark.InputError, match="allow_external=True"):
         gapmark.run(spec_folder / "ext.json", progress=False)
+
+
+def test_fits_on_record_are_those_of_fill_on_the_same_masked_series(spec_folder, demo_frame):
+    results = gapmark.run(spec_folder / "spec.json", progress=False)
+    trials = results.trials
+    column, replicate = "salinity_psu", 2
+    row = trials[(trials.series == column) & (trials.replicate == replicate) & (trials.method == "kalman")].iloc[0]
+    assert row["fit"]["model"] == "level"
+    assert isinstance(trials[trials.method == "linear"]["fit"].iloc[0], float)  # no fit: NaN
+    hidden = gapmark.mask(demo_frame[column], "blocks", rate=0.1, seed=20261201, replicate=replicate, holdout=48,
+                          period=24, length_mean=8)
+    filled = gapmark.fill(demo_frame[column].mask(hidden), "kalman:model=level", period=24)
+    assert filled.fit == row["fit"]
+    assert filled.variance is not None and (filled.variance[hidden] > 0).all()
