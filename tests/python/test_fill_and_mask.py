@@ -106,3 +106,14 @@ def test_mask_depends_on_the_series_name(demo_frame):
 def test_mask_refuses_a_rate_outside_0_1():
     with pytest.raises(gapmark.InputError, match="rate"):
         gapmark.mask(np.arange(100.0), "random", rate=1.5, seed=1)
+
+
+def test_fill_fit_equals_gapmark_fill_fit(cli, tmp_path, demo_frame):
+    """The fitted model of fill() is the one `gapmark fill --fit` writes."""
+    import json
+    for column, method in [("salinity_psu", "kalman:model=trend"), ("water_level_m", "arima:order=1,0,1")]:
+        cli("fill", DEMO_CSV, "--column", column, "--method", method, "--out", tmp_path / f"{column}.csv",
+            "--fit", tmp_path / f"{column}.json")
+        written = json.loads((tmp_path / f"{column}.json").read_text())
+        assert written["columns"][0]["fit"] is not None
+        assert gapmark.fill(demo_frame[column], method).fit == written["columns"][0]["fit"], column
