@@ -6,6 +6,7 @@
 #include <pybind11/pybind11.h>
 #include <pybind11/stl.h>
 
+#include <atomic>
 #include <optional>
 #include <string>
 #include <vector>
@@ -35,6 +36,13 @@ CallSpec make_call(const std::string& text, const std::vector<std::pair<std::str
 /// The time axis of `length` points: from ISO 8601 times (a pandas index
 /// written as text) when given, else the integer axis 0..length-1.
 TimeAxis make_axis(std::size_t length, const std::optional<std::vector<std::string>>& times);
+
+/// Set when the user interrupted (Ctrl-C, KeyboardInterrupt) a run or a fill:
+/// Python methods are not called again, and the run raises KeyboardInterrupt
+/// at its end instead of returning results with failed trials.
+std::atomic<bool>& interrupted();
+/// Raises KeyboardInterrupt (and clears the flag) when it is set.
+void raise_if_interrupted();
 
 /// The array's values as a vector.
 std::vector<double> to_vector(const DoubleArray& array, const std::string& where);

@@ -66,10 +66,14 @@ py::tuple fill_series(const DoubleArray& values, const std::string& method_text,
     request.sibling_names.push_back(in.sibling_names[k]);
   }
   FillResult result;
-  {
+  interrupted() = false;
+  try {
     py::gil_scoped_release release;  // a Python method takes it back
     check_needs(method, request);
     result = method.impl->fill(request);
+  } catch (const MethodFailure&) {
+    raise_if_interrupted();
+    throw;
   }
   if (result.values.size() != in.values.size()) throw MethodFailure("returned the wrong number of values");
   std::vector<double> filled = in.values;

@@ -45,6 +45,7 @@ public:
       : call_(call), function_(function), own_(std::move(own)), values_(std::move(values)), siblings_(siblings) {}
 
   FillResult fill(const FillRequest& request) const override {
+    if (interrupted()) throw MethodFailure("interrupted");
     py::gil_scoped_acquire gil;
     py::dict siblings;  // copied only for a method that declared it needs them
     for (std::size_t k = 0; siblings_ && k < request.siblings.size(); ++k)
@@ -59,7 +60,8 @@ public:
           axis.size() ? py::str(axis.format(0)) : py::str(""), py::str(axis.step().iso()),
           params);
     } catch (py::error_already_set& e) {
-      throw MethodFailure(e.what());
+      if (e.matches(PyExc_KeyboardInterrupt)) interrupted() = true;
+      throw MethodFailure(interrupted() ? std::string("interrupted") : std::string(e.what()));
     }
     py::tuple pair = out.cast<py::tuple>();
     if (py::isinstance<py::str>(pair[0])) throw MethodFailure(pair[1].cast<std::string>());
@@ -133,6 +135,17 @@ void register_method(const std::string& name, const std::string& summary, const 
 }
 
 }  // namespace
+
+std::atomic<bool>& interrupted() {
+  static std::atomic<bool> flag{false};
+  return flag;
+}
+
+void raise_if_interrupted() {
+  if (!interrupted().exchange(false)) return;
+  PyErr_SetNone(PyExc_KeyboardInterrupt);
+  throw py::error_already_set();
+}
 
 void add_python_methods(py::module_& m) {
   m.def("_register_method", &register_method, py::arg("name"), py::arg("summary"), py::arg("call"),

@@ -49,8 +49,8 @@ struct RunResults {
 
 /// Calls a Python function with (done, total) at most once a second and at
 /// the end, holding the GIL only for that call.
+/// Also notes a Ctrl-C (see interrupted()).
 std::function<void(std::size_t, std::size_t)> progress_caller(py::object report) {
-  if (report.is_none()) return {};
   struct State {
     std::mutex mutex;
     std::chrono::steady_clock::time_point last{};
@@ -62,7 +62,12 @@ std::function<void(std::size_t, std::size_t)> progress_caller(py::object report)
     const auto now = std::chrono::steady_clock::now();
     if (done != total && now - state->last < std::chrono::seconds(1)) return;
     state->last = now;
-    py::gil_scoped_acquire gil;
+    py::gil_scoped_acquire gil;  // the printer's object is released with the GIL held, by run_spec
+    if (PyErr_CheckSignals() != 0) {  // Ctrl-C, seen when this runs on the main thread
+      if (PyErr_ExceptionMatches(PyExc_KeyboardInterrupt)) interrupted() = true;
+      PyErr_Clear();
+    }
+    if (holder->is_none()) return;
     try {
       (*holder)(done, total);
     } catch (py::error_already_set&) {
@@ -84,14 +89,14 @@ std::shared_ptr<RunResults> run_spec(const std::string& text, const std::string&
   options.threads = threads ? threads : std::max(1u, std::thread::hardware_concurrency());
   options.progress = progress_caller(progress);
   ResultSet results;
+  interrupted() = false;
   {
     py::gil_scoped_release release;  // built-in methods run on every thread; Python methods take the GIL
     results = run_experiment(spec, options);
   }
-  auto out = std::make_shared<RunResults>(std::move(results));
-  // the progress printer's Python object is released with the GIL held (here)
   options.progress = {};
-  return out;
+  raise_if_interrupted();  // no results with trials failed by the interruption
+  return std::make_shared<RunResults>(std::move(results));
 }
 
 std::shared_ptr<RunResults> load(const std::string& path) {

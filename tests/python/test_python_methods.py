@@ -128,3 +128,21 @@ def test_a_wrong_answer_is_a_failed_trial(folder):
     trials = run(folder, ["test-short"]).trials
     assert set(trials["status"]) == {"failed"}
     assert trials["reason"].iloc[0].startswith("ValueError: returned")
+
+
+def test_an_interrupt_stops_the_run_without_results(folder):
+    calls, armed = [], [True]
+
+    def impatient(values, request):
+        calls.append(1)
+        if armed[0] and len(calls) in (3, 4):
+            raise KeyboardInterrupt  # as Ctrl-C does inside a method
+        return interp(values, request)
+    gapmark.register_method("test-impatient", impatient)
+    with pytest.raises(KeyboardInterrupt):
+        run(folder, ["linear", "test-impatient"], threads=1)
+    assert len(calls) == 3, "no Python method is called after the interrupt"
+    with pytest.raises(KeyboardInterrupt):
+        gapmark.fill(np.array([1.0, np.nan, 3.0]), "test-impatient")
+    armed[0] = False
+    assert set(run(folder, ["test-impatient"]).trials["status"]) == {"ok"}, "the next run is not interrupted"
