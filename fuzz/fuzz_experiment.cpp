@@ -21,7 +21,7 @@
 #include "gapmark/experiment/runner.hpp"
 #include "gapmark/experiment/spec.hpp"
 #include "gapmark/experiment/spec_safety.hpp"
-#include "gapmark/experiment/summary.hpp"
+#include "gapmark/analysis/summary.hpp"
 #include "gapmark/params.hpp"
 #include "gapmark/report/reporter.hpp"
 

@@ -20,6 +20,7 @@ struct Series {
   TimeAxis axis;
   std::vector<double> values;                                ///< NaN = missing
   std::size_t period = 0;                                    ///< seasonal period in steps; 0 = none
+  std::string units;                                         ///< e.g. "mg/L", for reports; "" = not given
 
   /// "name" or "name[site=A,pen=3]": the label used in records and tables.
   std::string label() const;

@@ -76,9 +76,16 @@ std::string value_with_interval(const MetricSummary& s, double alpha) {
 std::string standing_words(const CellGroup& g, const MethodSummary& m, const std::string& rank_by) {
   const auto& best = g.methods.front();
   if (m.standing == Standing::Best) return "best";
+  if (m.standing == Standing::Better) {
+    std::string out = "smaller " + rank_by + " than " + best.method + " in most replicates (paired signed-rank test)";
+    if (std::isfinite(m.relative_difference))
+      out += " though its mean " + rank_by + " is " + (m.relative_difference >= 0 ? "higher by " : "lower by ") +
+             percent(std::abs(m.relative_difference));
+    return out;
+  }
   std::string out = standing_name(m.standing);
-  if (m.standing == Standing::Equivalent || m.standing == Standing::Better)
-    out += std::string(m.standing == Standing::Better ? " than " : " to ") + best.method;
+  if (m.standing == Standing::Equivalent)
+    out += " to " + best.method;
   else
     out += std::string(m.standing == Standing::Worse ? " than " : " from ") + best.method;
   if (std::isfinite(m.relative_difference))
@@ -152,10 +159,15 @@ SeriesVerdict decide_series(const std::string& series, const std::vector<const C
   // Caveats.
   for (const auto* g : groups) {
     const auto* m = find(*g, rec.method);
-    if (m && !as_good(m->standing))
+    if (m && m->standing == Standing::Better)
+      v.caveats.push_back("In " + condition_name(*g) + " it is not the best by mean: " + g->methods.front().method +
+                          " has the lower mean " + rank_by + ", while " + rec.method + " had the smaller " + rank_by +
+                          " in most replicates (paired signed-rank test). The mean and the paired test disagree when "
+                          "a few replicates weigh heavily; look at that condition's table before relying on either.");
+    else if (m && !as_good(m->standing))
       v.caveats.push_back("In " + condition_name(*g) + " it was " + standing_words(*g, *m, rank_by) + ".");
     for (const auto& o : g->methods)
-      if (o.standing == Standing::Better)
+      if (o.standing == Standing::Better && o.method != rec.method)
         v.caveats.push_back("In " + condition_name(*g) + ", " + o.method + " had the smaller " + rank_by +
                             " in most replicates (paired signed-rank test) while " + g->methods.front().method +
                             " had the lower mean; the best is the one with the lowest mean, the statistic the "

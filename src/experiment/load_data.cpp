@@ -84,12 +84,18 @@ LoadedData load_data(const ExperimentSpec& spec) {
                              " (periods name the columns of this data entry)");
     }
     for (Series& s : series) {
+      if (auto unit = spec.units.find(s.name); unit != spec.units.end()) s.units = unit->second;
       set_period(s, src);
       check_observed(s, src);
       out.series.push_back(std::move(s));
       out.dataset.push_back(d);
     }
   }
+  for (const auto& unit : spec.units)
+    if (std::none_of(out.series.begin(), out.series.end(), [&](const Series& s) { return s.name == unit.first; }))
+      throw InputError(spec.source + ": /units/" + printable(unit.first),
+                       "no series column " + quoted_for_message(unit.first) +
+                           " in the data (units name the columns of the data entries)");
   // Labels must be unique across the spec: prefix clashing names with their file's stem.
   for (const auto& s : out.series) ++seen[s.label()];
   for (std::size_t i = 0; i < out.series.size(); ++i)

@@ -223,6 +223,7 @@ nlohmann::json describe_series(const ExperimentSpec& spec, const LoadedData& dat
                    {"step", s.axis.step().iso()},
                    {"start", s.axis.size() ? s.axis.format(0) : ""},
                    {"period", s.period}});
+    if (!s.units.empty()) out.back()["units"] = s.units;
   }
   return out;
 }

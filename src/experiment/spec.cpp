@@ -1,5 +1,6 @@
 #include "gapmark/experiment/spec.hpp"
 
+#include <algorithm>
 #include <cstdint>
 #include <set>
 #include <type_traits>
@@ -18,7 +19,7 @@ using nlohmann::json;
 
 const std::set<std::string> kTopLevel = {"name",    "seed",    "replicates", "holdout", "output",
                                          "data",    "schemes", "methods",    "metrics", "rank_by",
-                                         "alpha",   "equivalence", "description"};
+                                         "alpha",   "equivalence", "description", "units"};
 const std::set<std::string> kDataKeys = {"file", "columns", "time_column", "step", "period", "periods", "groups"};
 
 struct Ctx {
@@ -171,6 +172,18 @@ ExperimentSpec parse_spec(const std::string& text, const std::string& source,
       throw InputError(ctx.at("/equivalence"),
                        "expected a number in (0, 1): the relative margin on the ranking metric (0.05 = within 5% of the best)");
     spec.equivalence = it->get<double>();
+  }
+
+  if (auto it = j.find("units"); it != j.end()) {
+    if (!it->is_object()) throw InputError(ctx.at("/units"), "expected an object {\"column\": \"units\"}, e.g. {\"flow\": \"m3/s\"}");
+    for (const auto& item : it->items()) {
+      const std::string pointer = "/units/" + item.key();
+      const std::string text = get_string(item.value(), ctx, pointer);
+      if (text.empty() || text.size() > 40 ||
+          std::any_of(text.begin(), text.end(), [](char c) { return static_cast<unsigned char>(c) < 0x20; }))
+        throw InputError(ctx.at(pointer), "expected units as short text (1 to 40 bytes, no control characters)");
+      spec.units[item.key()] = text;
+    }
   }
 
   const auto& data = get_array(require(j, "data", ctx, ""), ctx, "/data");

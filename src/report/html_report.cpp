@@ -170,41 +170,67 @@ std::string recommendation_card(const Summary& summary, const std::string& serie
   return out + "</div>";
 }
 
-/// Error against missing rate: one chart per scheme of the series.
+/// Every method of a condition with a single missing rate: a dot and its
+/// interval per method, in rank order; the leading methods keep their style,
+/// the others are grey.
+std::string single_rate_chart(const ResultSet& results, const CellGroup& g, StyleMap& styles) {
+  const std::size_t rank_col = results.column_index(results.rank_by);
+  charts::DotChart chart;
+  chart.title = results.rank_by + " of every method, " + condition(g);
+  chart.x_label = metric_label(results.columns[rank_col], series_units(results, g.series)) + " at " +
+                  percent(g.rate) + " missing";
+  for (const auto& m : g.methods) {
+    const MetricSummary& s = m.metrics[rank_col];
+    chart.rows.push_back({m.method, s.n ? s.mean : NAN, s.ci_low, s.ci_high, styles(m.method)});
+  }
+  return charts::dot_chart(chart);
+}
+
+/// Error against missing rate: one chart per scheme of the series; a scheme
+/// run at a single rate gets a dot chart of every method instead.
 std::string rate_charts(const ResultSet& results, const std::vector<const CellGroup*>& groups,
                         const std::vector<std::string>& shown, StyleMap& styles) {
   const std::size_t rank_col = results.column_index(results.rank_by);
   std::vector<std::string> schemes;
   for (const auto* g : groups)
     if (std::find(schemes.begin(), schemes.end(), g->scheme) == schemes.end()) schemes.push_back(g->scheme);
-  std::string out = "<h3>Error against missing rate</h3><div class=\"grid2\">";
+  std::string out = "<h3>Error by condition</h3><div class=\"grid2\">";
   for (const auto& scheme : schemes) {
     std::vector<const CellGroup*> gs;
     for (const auto* g : groups)
       if (g->scheme == scheme) gs.push_back(g);
     std::stable_sort(gs.begin(), gs.end(), [](auto a, auto b) { return a->rate < b->rate; });
-    charts::LineChart chart;
-    chart.title = results.rank_by + " against missing rate, " + scheme;
-    chart.x_label = "missing rate";
-    chart.y_label = results.rank_by;
-    for (const auto* g : gs) {
-      chart.x.push_back(g->rate);
-      if (gs.size() == 1) chart.x_names.push_back(percent(g->rate));
-    }
-    for (const auto& m : shown) {
-      charts::ChartLine line{m, {}, {}, {}, styles(m)};
-      for (const auto* g : gs) {
-        const auto* ms = find_method(*g, m);
-        const MetricSummary s = ms ? ms->metrics[rank_col] : MetricSummary{NAN, NAN, NAN, NAN, 0};
-        line.y.push_back(s.mean);
-        line.low.push_back(s.ci_low);
-        line.high.push_back(s.ci_high);
+    std::string svg, note;
+    if (gs.size() == 1) {
+      svg = single_rate_chart(results, *gs.front(), styles);
+      note = "One missing rate: each method's mean " + results.rank_by + " (marker) and its " +
+             short_number(100 * (1 - results.alpha)) + "% bootstrap interval (line), best first; the leading "
+             "methods in their colours, the others grey. A method far worse than the rest sits at the axis' end "
+             "with its value written out.";
+    } else {
+      charts::LineChart chart;
+      chart.title = results.rank_by + " against missing rate, " + scheme;
+      chart.x_label = "missing rate";
+      chart.y_label = metric_label(results.columns[rank_col], series_units(results, gs.front()->series));
+      for (const auto* g : gs) chart.x.push_back(g->rate);
+      for (const auto& m : shown) {
+        charts::ChartLine line{m, {}, {}, {}, styles(m)};
+        for (const auto* g : gs) {
+          const auto* ms = find_method(*g, m);
+          const MetricSummary s = ms ? ms->metrics[rank_col] : MetricSummary{NAN, NAN, NAN, NAN, 0};
+          line.y.push_back(s.mean);
+          line.low.push_back(s.ci_low);
+          line.high.push_back(s.ci_high);
+        }
+        chart.lines.push_back(std::move(line));
       }
-      chart.lines.push_back(std::move(line));
+      svg = charts::line_chart(chart);
+      note = "Mean " + results.rank_by + " of the leading methods at each missing rate; the band is the " +
+             short_number(100 * (1 - results.alpha)) + "% bootstrap interval of the mean.";
     }
-    const std::string svg = charts::line_chart(chart);
     out += "<div class=\"figure\"><h4>" + escape(scheme) + "</h4>" +
-           (svg.empty() ? "<p class=\"empty\">no values to draw</p>" : svg) + "</div>";
+           (svg.empty() ? "<p class=\"empty\">no values to draw</p>" : svg + "<p class=\"note\">" + escape(note) + "</p>") +
+           "</div>";
   }
   return out + "</div>";
 }
@@ -227,7 +253,7 @@ std::string gap_chart(const ResultSet& results, const CellGroup& g, const std::v
   charts::LineChart chart;
   chart.title = "RMSE by gap length, " + condition(g);
   chart.x_label = "gap length (points)";
-  chart.y_label = "rmse";
+  chart.y_label = series_units(results, g.series).empty() ? "rmse" : "rmse (" + series_units(results, g.series) + ")";
   chart.x = {0, 1, 2};
   chart.x_names = names;
   chart.bands = false;
@@ -257,6 +283,21 @@ std::string gap_chart(const ResultSet& results, const CellGroup& g, const std::v
          "and the series' own missing values together). A class without points in a replicate has no value.</p></div>";
 }
 
+std::string standing_class(Standing s) {
+  switch (s) {
+    case Standing::Best:
+    case Standing::Equivalent: return "good";
+    case Standing::Better: return "better";
+    case Standing::Worse: return "worse";
+    case Standing::NotDistinguishable: return "open";
+  }
+  return "open";
+}
+
+/// The ranked table of one condition: rank, method, the ranking metric with
+/// its interval, the verdict, failures and mean rank, narrow enough to show
+/// failures without scrolling; the other metrics follow in a second table
+/// behind a disclosure.
 std::string ranked_table(const ResultSet& results, const Summary& summary, const CellGroup& g) {
   const std::size_t rank_col = results.column_index(results.rank_by);
   const std::string level = short_number(100 * (1 - summary.alpha));
@@ -271,22 +312,38 @@ std::string ranked_table(const ResultSet& results, const Summary& summary, const
   out += "; equivalence margin ±" + escape(short_number(g.margin)) + " " + escape(results.rank_by);
   if (g.mask_failed)
     out += "; " + std::to_string(g.mask_failed) + " replicate(s) could not be masked and are left out";
-  out += "</caption><thead><tr><th>rank</th><th class=\"name\">method</th><th>" + escape(results.rank_by) + "</th><th>" +
-         level + "% interval</th><th>verdict</th><th>failed</th>";
-  for (auto c : others)
-    out += "<th title=\"" + escape(results.columns[c].summary) + "\">" + escape(results.columns[c].name) + "</th>";
-  out += "<th>mean rank</th></tr></thead><tbody>";
+  const std::string units = series_units(results, g.series);
+  out += "</caption><thead><tr><th>rank</th><th class=\"name\">method</th><th title=\"" +
+         escape(results.columns[rank_col].summary) + "\">" + escape(metric_label(results.columns[rank_col], units)) +
+         "</th><th>" + level +
+         "% interval</th><th>verdict</th><th>failed</th><th>mean rank</th></tr></thead><tbody>";
   for (const auto& m : g.methods) {
     const bool good = m.standing == Standing::Best || m.standing == Standing::Equivalent;
     out += std::string("<tr") + (good ? " class=\"tied\"" : "") + "><td>" + std::to_string(m.rank) +
            "</td><td class=\"name\">" + escape(m.method) + "</td><td>" + metric_cell(m.metrics[rank_col]) +
-           "</td><td>" + escape(interval(m.metrics[rank_col])) + "</td><td class=\"mark\">" +
-           escape(standing_name(m.standing)) + "</td><td" + (m.failures ? " class=\"failed\"" : "") + ">" +
-           (m.failures ? std::to_string(m.failures) + "/" + std::to_string(m.trials) : "0") + "</td>";
-    for (auto c : others) out += "<td>" + metric_cell(m.metrics[c]) + "</td>";
-    out += "<td>" + escape(short_number(m.mean_rank)) + "</td></tr>";
+           "</td><td>" + escape(interval(m.metrics[rank_col])) + "</td><td class=\"mark " +
+           standing_class(m.standing) + "\">" + escape(standing_name(m.standing)) + "</td><td" +
+           (m.failures ? " class=\"failed\"" : "") + ">" +
+           (m.failures ? std::to_string(m.failures) + "/" + std::to_string(m.trials) : "0") + "</td><td>" +
+           escape(short_number(m.mean_rank)) + "</td></tr>";
   }
-  return out + "</tbody></table></div>";
+  out += "</tbody></table></div>";
+  if (others.empty()) return out;
+  std::string names;
+  for (auto c : others) names += (names.empty() ? "" : ", ") + results.columns[c].name;
+  out += "<details class=\"more\"><summary>Other metrics <span class=\"sub\">(" + escape(names) +
+         ")</span></summary><div class=\"scroll\"><table><thead><tr><th class=\"name\">method</th>";
+  for (auto c : others)
+    out += "<th title=\"" + escape(results.columns[c].summary) + "\">" +
+           escape(metric_label(results.columns[c], units)) + "</th>";
+  out += "</tr></thead><tbody>";
+  for (const auto& m : g.methods) {
+    out += "<tr><td class=\"name\">" + escape(m.method) + "</td>";
+    for (auto c : others) out += "<td>" + metric_cell(m.metrics[c]) + "</td>";
+    out += "</tr>";
+  }
+  return out + "</tbody></table></div><p class=\"note\">Hover a column name for its definition; the metrics "
+               "page of the documentation gives each formula.</p></details>";
 }
 
 const nlohmann::json* example_of(const ResultSet& results, const std::string& series) {
@@ -296,7 +353,7 @@ const nlohmann::json* example_of(const ResultSet& results, const std::string& se
   return nullptr;
 }
 
-std::string example_section(const nlohmann::json* example, StyleMap& styles) {
+std::string example_section(const nlohmann::json* example, const std::string& units, StyleMap& styles) {
   std::string out = "<h3>Example window</h3>";
   if (example == nullptr)
     return out + "<p class=\"empty\">These results carry no example window for this series.</p>";
@@ -313,7 +370,7 @@ std::string example_section(const nlohmann::json* example, StyleMap& styles) {
     else if (m.value("status", std::string()) == "not run")
       failures += " " + escape(names.back()) + " is not drawn: " + escape(m.value("reason", std::string())) + ".";
   }
-  const std::string window = charts::window_chart(*example, s);
+  const std::string window = charts::window_chart(*example, s, units.empty() ? "value" : "value (" + units + ")");
   const std::string acf = charts::acf_chart(*example, s);
   out += "<div class=\"legend\"><span><svg class=\"swatch\" viewBox=\"0 0 34 12\" width=\"34\" height=\"12\" "
          "aria-hidden=\"true\"><line x1=\"1\" y1=\"6\" x2=\"33\" y2=\"6\" stroke=\"" + std::string(svg::kInk) +
@@ -326,7 +383,9 @@ std::string example_section(const nlohmann::json* example, StyleMap& styles) {
   out += "</div>";
   out += "<div class=\"figure\">" + (window.empty() ? "<p class=\"empty\">nothing to draw</p>" : window) +
          "<p class=\"note\">" + escape(example->value("scheme", std::string())) + " at " +
-         percent(example->value("rate", 0.0)) + ", replicate 1: points " +
+         percent(example->value("rate", 0.0)) + ", replicate " + std::to_string(example->value("replicate", 0)) +
+         " (the mask that gapmark mask --replicate " + std::to_string(example->value("replicate", 0)) +
+         " draws with the run's seed): points " +
          std::to_string(example->value("start", 0)) + " to " +
          std::to_string(example->value("start", 0) + example->value("length", 0) - 1) + " (" +
          escape(example->value("time_first", std::string())) + " to " +
@@ -373,12 +432,14 @@ std::string series_section(const ResultSet& results, const Summary& summary, con
                std::to_string(s.value("points", 0)) + " points, " + std::to_string(s.value("observed", 0)) +
                " observed · step " + escape(s.value("step", std::string())) + " · period " +
                (s.value("period", 0) ? std::to_string(s.value("period", 0)) : std::string("none")) + " · starts " +
-               escape(s.value("start", std::string())) + "</p>";
+               escape(s.value("start", std::string())) +
+               (series_units(results, label).empty() ? "" : " · units " + escape(series_units(results, label))) +
+               "</p>";
   if (groups.empty()) return out + "<p class=\"empty\">No trials for this series.</p></section>";
   out += recommendation_card(summary, label);
   out += "<h3>Leading methods</h3>" + legend(shown, styles);
   out += rate_charts(results, groups, shown, styles);
-  out += example_section(example_of(results, label), styles);
+  out += example_section(example_of(results, label), series_units(results, label), styles);
   out += "<h3>Ranked tables</h3>";
   for (std::size_t i = 0; i < groups.size(); ++i) {
     const auto* g = groups[i];

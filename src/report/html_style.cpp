@@ -37,7 +37,14 @@ th, td { padding: 3px 9px; border-bottom: 1px solid var(--line); text-align: rig
 th { font-weight: 600; background: #f3f4f1; position: sticky; top: 0; }
 td.name, th.name { text-align: left; }
 tr.tied td { background: var(--tied); }
-td.mark { text-align: center; color: #3b7a3b; font-weight: 700; }
+td.mark { text-align: center; font-weight: 650; }
+td.mark.good { color: #2f6b34; }
+td.mark.better { color: #274571; }
+td.mark.worse { color: #8a4b2a; font-weight: 500; }
+td.mark.open { color: var(--muted); font-weight: 500; }
+details.more { margin: 0 0 14px; }
+details.more > summary { font-weight: 500; font-size: 0.88rem; color: var(--accent); }
+details.more p.note { font-size: 0.8rem; color: var(--muted); margin: 2px 0 0; }
 td.failed { color: #952e17; }
 details { margin: 6px 0; }
 details > summary { cursor: pointer; font-weight: 600; padding: 4px 0; }

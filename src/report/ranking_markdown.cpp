@@ -61,12 +61,13 @@ public:
       }
       out += "\n### " + markdown_text(g.scheme) + " at rate " + format_double(g.rate) + " (" + std::to_string(g.replicates) +
              " replicates)\n\n";
-      std::vector<std::string> header{"rank", "method", rc.name, "interval", "verdict", "failed"};
+      const std::string units = series_units(results, g.series);
+      std::vector<std::string> header{"rank", "method", metric_label(rc, units), "interval", "verdict", "failed"};
       std::vector<std::size_t> shown;
       for (std::size_t c = 0; c < results.columns.size(); ++c)
         if (c != rank_col && results.columns[c].direction != Direction::None) {
           shown.push_back(c);
-          header.push_back(results.columns[c].name);
+          header.push_back(metric_label(results.columns[c], units));
         }
       header.push_back("mean rank");
       std::vector<std::vector<std::string>> rows;

@@ -2,6 +2,7 @@
 
 #include "gapmark/text_safety.hpp"
 
+#include <algorithm>
 #include <cmath>
 #include <cstdio>
 
@@ -14,15 +15,62 @@ std::string short_number(double value) {
   return buffer;
 }
 
+int supported_decimals(double low, double high) {
+  const double width = high - low;
+  const double scale = std::max(std::abs(low), std::abs(high));
+  if (!std::isfinite(width) || !(width > 1e-9 * scale) || width <= 0) return -1;
+  return std::clamp(1 - static_cast<int>(std::floor(std::log10(width))), 0, 15);
+}
+
+std::string fixed_number(double value, int decimals) {
+  if (decimals < 0 || !std::isfinite(value)) return short_number(value);
+  char buffer[64];
+  std::snprintf(buffer, sizeof buffer, "%.*f", decimals, value);
+  std::string text = buffer;
+  if (text.size() > 24) return short_number(value);  // a huge value: the exponent form reads better
+  if (text.front() == '-' && text.find_first_not_of("-0.") == std::string::npos) text.erase(0, 1);
+  return text;
+}
+
+namespace {
+
+/// The decimals of a summary: from its interval, or from ±2 sd without one.
+int summary_decimals(const MetricSummary& s) {
+  if (std::isfinite(s.ci_low) && std::isfinite(s.ci_high)) return supported_decimals(s.ci_low, s.ci_high);
+  if (std::isfinite(s.sd)) return supported_decimals(s.mean - 2 * s.sd, s.mean + 2 * s.sd);
+  return -1;
+}
+
+}  // namespace
+
 std::string mean_sd(const MetricSummary& s) {
   if (s.n == 0 || std::isnan(s.mean)) return "n/a";
   if (std::isnan(s.sd)) return short_number(s.mean);
-  return short_number(s.mean) + " ± " + short_number(s.sd);
+  const int decimals = summary_decimals(s);
+  // An sd that is numerical noise (below 1e-9 of the mean) is zero.
+  const bool noise = !(s.sd > 1e-9 * std::abs(s.mean));
+  if (decimals < 0) return short_number(s.mean) + " ± " + (noise ? "0" : short_number(s.sd));
+  return fixed_number(s.mean, decimals) + " ± " + fixed_number(noise ? 0.0 : s.sd, decimals);
 }
 
 std::string interval(const MetricSummary& s) {
   if (std::isnan(s.ci_low)) return "";
-  return "[" + short_number(s.ci_low) + ", " + short_number(s.ci_high) + "]";
+  const int decimals = summary_decimals(s);
+  return "[" + fixed_number(s.ci_low, decimals) + ", " + fixed_number(s.ci_high, decimals) + "]";
+}
+
+std::string series_units(const ResultSet& results, const std::string& label) {
+  if (!results.series.is_array()) return "";
+  for (const auto& s : results.series)
+    if (s.is_object() && s.value("label", std::string()) == label) {
+      const auto it = s.find("units");
+      return it != s.end() && it->is_string() ? it->get<std::string>() : "";
+    }
+  return "";
+}
+
+std::string metric_label(const MetricColumn& column, const std::string& units) {
+  return column.unit == "value" && !units.empty() ? column.name + " (" + units + ")" : column.name;
 }
 
 std::string direction_words(Direction d) {

@@ -25,7 +25,8 @@ void widen(double& lo, double& hi, const std::vector<double>& xs) {
 
 }  // namespace
 
-std::string window_chart(const nlohmann::json& example, const std::vector<svg::Style>& styles) {
+std::string window_chart(const nlohmann::json& example, const std::vector<svg::Style>& styles,
+                         const std::string& y_label) {
   const auto truth = numbers(example.value("truth", nlohmann::json::array()));
   const auto mask_values = numbers(example.value("mask", nlohmann::json::array()));
   const std::size_t w = truth.size();
@@ -61,7 +62,7 @@ std::string window_chart(const nlohmann::json& example, const std::vector<svg::S
            coord(plot.y0() - plot.y1()) + "\" fill=\"" + svg::kShade + "\"/>";
     i = j;
   }
-  out += axes(plot, x_ticks, {}, y_ticks, "position in the series", "value");
+  out += axes(plot, x_ticks, {}, y_ticks, "position in the series", y_label);
   std::vector<double> xs(w), ys(w);
   for (std::size_t i = 0; i < w; ++i) {
     xs[i] = plot.x(start + static_cast<double>(i));

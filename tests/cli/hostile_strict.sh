@@ -17,6 +17,15 @@ spec columns '"data": [{"file": "d.csv", "columns": ["a", "a"]}], "schemes": ["r
 expect_fail 2 "columns.json: /data/0/columns/1: column 'a' is listed twice" -- "$GAPMARK" run columns.json
 spec periods '"data": [{"file": "d.csv", "periods": {"typo": 5}}], "schemes": ["random:rate=0.1"], "methods": ["linear"]'
 expect_fail 2 "periods.json: /data/0/periods/typo: no series column 'typo' in" -- "$GAPMARK" run periods.json
+spec units '"data": ["d.csv"], "units": {"typo": "mg/L"}, "schemes": ["random:rate=0.1"], "methods": ["linear"]'
+expect_fail 2 "units.json: /units/typo: no series column 'typo' in the data" -- "$GAPMARK" run units.json
+spec unitlen '"data": ["d.csv"], "units": {"a": ""}, "schemes": ["random:rate=0.1"], "methods": ["linear"]'
+expect_fail 2 "unitlen.json: /units/a: expected units as short text" -- "$GAPMARK" run unitlen.json
+spec unitsok '"data": ["d.csv"], "units": {"a": "m3/s"}, "schemes": ["random:rate=0.1"], "methods": ["linear", "mean"]'
+"$GAPMARK" run unitsok.json --quiet
+check "units reach the report's table headings" grep -q "rmse (m3/s)" out_unitsok/report.html
+check "and ranking.md" grep -q "rmse (m3/s)" out_unitsok/ranking.md
+check "a column without units keeps bare names" grep -q "<th title=\"[^\"]*\">rmse</th>" out_unitsok/report.html
 printf '{"seed": 1, "seed": 2, "data": ["d.csv"], "schemes": ["random:rate=0.1"], "methods": ["linear"]}\n' >keys.json
 expect_fail 2 "keys.json: duplicate key 'seed' in one JSON object" -- "$GAPMARK" run keys.json
 

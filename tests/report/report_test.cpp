@@ -14,6 +14,7 @@
 #include "gapmark/report/html_charts.hpp"
 #include "gapmark/report/references.hpp"
 #include "gapmark/report/reporter.hpp"
+#include "gapmark/report/table_text.hpp"
 
 using namespace gapmark;
 
@@ -134,11 +135,16 @@ TEST_CASE("report.html is self-contained and readable without the JSON") {
   CHECK(html.find("synthetic masks can flatter a method") != std::string::npos);
   CHECK(html.find("qualified person") != std::string::npos);
   CHECK(count(html, "Recommended on this evidence") == 2);
-  CHECK(count(html, "Error against missing rate") == 2);
+  CHECK(count(html, "Error by condition") == 2);
   CHECK(count(html, "<title>RMSE by gap length") == 6);  // every condition has the by_gap_length columns
   CHECK(count(html, "<title>Example window: true values") == 2);
   CHECK(count(html, "<title>Autocorrelation of the complete series") == 2);
-  CHECK(count(html, "<table>") == 6);
+  // Each condition: the ranked table, and the other metrics in a second one behind a disclosure.
+  CHECK(count(html, "<table>") == 2 * 6);
+  CHECK(count(html, "<details class=\"more\"><summary>Other metrics") == 6);
+  // The ranked table is narrow: rank, method, metric, interval, verdict, failed, mean rank.
+  const auto first_table = html.substr(html.find("<table>"), html.find("</thead>", html.find("<table>")) - html.find("<table>"));
+  CHECK(count(first_table, "</th>") == 7);
   std::size_t across = 0;
   for (const auto& a : run.summary.across)
     across += a.datasets >= 2 && std::isfinite(a.critical_difference) && a.methods.size() >= 2;
@@ -247,4 +253,49 @@ TEST_CASE("the rank chart draws a row per method and a bracket per group") {
   CHECK(count(svg, "not distinguishable:") == 2);
   CHECK(svg.find("not distinguishable: d, b, c") != std::string::npos);
   CHECK(svg.find("not distinguishable: c, a") != std::string::npos);
+}
+
+TEST_CASE("numbers are rounded to what their interval supports") {
+  // Two significant digits of the interval's width: 0.00277 wide -> 4 decimals.
+  CHECK(supported_decimals(0.06235, 0.06512) == 4);
+  CHECK(supported_decimals(1.949, 2.192) == 2);
+  CHECK(supported_decimals(120.0, 180.0) == 0);
+  // A width that is zero or numerical noise: four significant digits instead.
+  CHECK(supported_decimals(0.5, 0.5) == -1);
+  CHECK(supported_decimals(0.5, 0.5 + 1e-15) == -1);
+  CHECK(fixed_number(-0.00001, 2) == "0.00");  // never "-0.00"
+  CHECK(fixed_number(0.0637123, 4) == "0.0637");
+  const MetricSummary s{0.0637123, 0.0033, 0.06235, 0.06512, 20};
+  CHECK(mean_sd(s) == "0.0637 ± 0.0033");
+  CHECK(interval(s) == "[0.0624, 0.0651]");
+  // An sd of numerical noise shows as zero, not as "1.133e-16".
+  const MetricSummary flat{1.0, 1.133e-16, 1.0, 1.0, 20};
+  CHECK(mean_sd(flat) == "1 ± 0");
+}
+
+TEST_CASE("units from the spec label the metrics in the data's units") {
+  ResultSet results;
+  results.series = nlohmann::json::array({{{"label", "flow"}, {"units", "m3/s"}}, {{"label", "count"}}});
+  CHECK(series_units(results, "flow") == "m3/s");
+  CHECK(series_units(results, "count").empty());
+  CHECK(metric_label(MetricColumn{"rmse", "value", Direction::Lower, ""}, "m3/s") == "rmse (m3/s)");
+  CHECK(metric_label(MetricColumn{"var_ratio", "ratio", Direction::OneBest, ""}, "m3/s") == "var_ratio");
+  CHECK(metric_label(MetricColumn{"rmse", "value", Direction::Lower, ""}, "") == "rmse");
+}
+
+TEST_CASE("a dot chart draws every method, and one far worse at the axis' end") {
+  charts::DotChart chart;
+  chart.title = "rmse of every method";
+  chart.x_label = "rmse";
+  const double means[] = {1.0, 1.1, 1.2, 1.3, 50.0};
+  for (std::size_t i = 0; i < 5; ++i)
+    chart.rows.push_back({"m" + std::to_string(i), means[i], means[i] - 0.05, means[i] + 0.05, svg::style(i)});
+  const std::string svg = charts::dot_chart(chart);
+  CHECK(count(svg, "<g class=\"series\">") == 5);
+  for (std::size_t i = 0; i < 5; ++i) CHECK(svg.find(">m" + std::to_string(i) + "</text>") != std::string::npos);
+  CHECK(svg.find("→ 50") != std::string::npos);  // off the axis, value written
+  // The axis covers the others only: no tick as far as 50.
+  CHECK(svg.find(">50</text>") == std::string::npos);
+  CHECK(svg.find(">40</text>") == std::string::npos);
+  CHECK(charts::dot_chart(charts::DotChart{}).empty());
 }

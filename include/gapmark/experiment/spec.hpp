@@ -56,6 +56,7 @@ struct ExperimentSpec {
   std::string rank_by = "rmse";
   double alpha = 0.05;
   double equivalence = kDefaultEquivalence;  ///< relative margin on the ranking metric, in (0, 1)
+  std::map<std::string, std::string> units;  ///< column -> its units ("mg/L"), shown in the reports
 };
 
 /// Reads and checks a spec file. Errors are one line naming the file and the

@@ -48,9 +48,26 @@ struct LineChart {
 /// Lines with interval bands or whiskers. Empty string when nothing to draw.
 std::string line_chart(const LineChart& chart);
 
+/// One row of a dot chart: a method's mean and interval.
+struct DotRow {
+  std::string name;
+  double mean = 0, low = 0, high = 0;  ///< NaN = no value
+  svg::Style style;
+};
+
+struct DotChart {
+  std::string title, x_label;
+  std::vector<DotRow> rows;  ///< top to bottom
+};
+
+/// One row per method, mean as a marker and interval as a whisker, on one
+/// horizontal axis. Empty string when nothing to draw.
+std::string dot_chart(const DotChart& chart);
+
 /// An example window from results' "examples": the truth, the masked
 /// stretches and the fills. `styles[i]` draws example["methods"][i].
-std::string window_chart(const nlohmann::json& example, const std::vector<svg::Style>& styles);
+std::string window_chart(const nlohmann::json& example, const std::vector<svg::Style>& styles,
+                         const std::string& y_label = "value");
 /// Autocorrelation at lags 1..L of the complete series and of each fill;
 /// `styles` as for window_chart (matched by method name).
 std::string acf_chart(const nlohmann::json& example, const std::vector<svg::Style>& styles);

@@ -10,10 +10,27 @@ namespace gapmark {
 
 /// Four significant digits for tables ("0.1235", "1.235e+05"); "n/a" for NaN.
 std::string short_number(double value);
-/// "mean ± sd" or "mean" when sd is undefined; "n/a" without a mean.
+/// Decimal places that show an interval [low, high] with two significant
+/// digits of its width: the precision the replicates support. -1 when the
+/// width is zero, not finite, or below 1e-9 of the values (numerical noise);
+/// then four significant digits are shown instead.
+int supported_decimals(double low, double high);
+/// `value` with `decimals` places ("0.0637"), or short_number when decimals < 0;
+/// never "-0".
+std::string fixed_number(double value, int decimals);
+/// "mean ± sd" rounded to what the interval supports (supported_decimals; an
+/// sd below that precision shows as 0), or "mean" when sd is undefined; "n/a"
+/// without a mean.
 std::string mean_sd(const MetricSummary& s);
-/// "[lo, hi]" or "".
+/// "[lo, hi]" rounded as mean_sd rounds, or "".
 std::string interval(const MetricSummary& s);
+/// The units the spec gave the series `label` ("" when none), from the
+/// results' facts about their series.
+std::string series_units(const ResultSet& results, const std::string& label);
+/// "rmse (mg/L)" for a metric in the data's own units (unit "value") when
+/// the units are known; the bare name otherwise.
+std::string metric_label(const MetricColumn& column, const std::string& units);
+
 /// Words for a direction: "lower is better", "closer to 0 is better", ...
 std::string direction_words(Direction d);
 
