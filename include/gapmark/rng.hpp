@@ -25,9 +25,15 @@ public:
   bool bernoulli(double p) { return uniform() < p; }
   /// Geometric on {1, 2, ...} with the given mean (>= 1).
   std::uint64_t geometric(double mean);
+  /// Standard normal, by Marsaglia's polar method (uniform pairs in the
+  /// unit disc; sqrt and log only). Draws come in pairs: the second of a
+  /// pair is kept for the next call.
+  double normal();
 
 private:
   std::uint64_t s_[4];
+  double spare_ = 0;
+  bool has_spare_ = false;
 };
 
 /// The seed of one task: a hash of the spec seed and the task's key, so the

@@ -9,3 +9,4 @@ cd "$(dirname "$0")"
 /usr/bin/python3 seasonal_naive_statsmodels.py
 /usr/bin/python3 holt_winters_statsmodels.py
 /usr/bin/python3 crps_scipy.py
+/usr/bin/python3 sample_crps_scipy.py

@@ -1,4 +1,5 @@
 // `gapmark fill`: fill the real gaps of a CSV with one method.
+#include <algorithm>
 #include <cmath>
 #include <filesystem>
 #include <iostream>
@@ -6,6 +7,7 @@
 #include "commands.hpp"
 #include "gapmark/error.hpp"
 #include "gapmark/fill/fill_table.hpp"
+#include "gapmark/number_format.hpp"
 #include "gapmark/report/table_text.hpp"
 #include "gapmark/wide_write.hpp"
 #include "output_rules.hpp"
@@ -28,6 +30,24 @@ nlohmann::json fits_json(const std::string& method, const std::vector<FillTableR
   return {{"format", "gapmark-fit"}, {"schema_version", 1}, {"method", method}, {"columns", columns}};
 }
 
+/// The method call with `draws=M` added for --draws M; refused for a method
+/// that cannot draw, or one whose call already asks for another number.
+CallSpec with_draws(CallSpec call, std::size_t draws) {
+  if (draws == 0) return call;
+  const auto* entry = MethodRegistry::global().find(call.name);
+  if (entry == nullptr) return call;  // binding names the unknown method
+  const bool can_draw = std::any_of(entry->params.begin(), entry->params.end(),
+                                    [](const ParamSpec& p) { return p.name == "draws"; });
+  if (!can_draw)
+    throw InputError("--draws", "method '" + call.name + "' gives no draws; kalman and arima do");
+  for (const auto& [key, value] : call.args)
+    if (key == "draws" && value != std::to_string(draws))
+      throw InputError("--draws", "the method call already asks for draws=" + value + "; give the number once");
+  if (std::none_of(call.args.begin(), call.args.end(), [](const auto& a) { return a.first == "draws"; }))
+    call.args.emplace_back("draws", std::to_string(draws));
+  return call;
+}
+
 /// One line for people: the model, its estimates and its likelihood, 4 significant digits.
 std::string fit_line(const ModelFit& fit) {
   std::string line = fit.model;
@@ -46,6 +66,8 @@ void add_fill(CLI::App& app, Action& action) {
     std::string method;
     std::string out;
     std::string fit;
+    std::size_t draws = 0;
+    std::uint64_t seed = 1;
     bool force = false;
   };
   auto o = std::make_shared<Options>();
@@ -57,6 +79,12 @@ void add_fill(CLI::App& app, Action& action) {
                   "Also write what the method estimated per column (variances, coefficients, lambda and rank, "
                   "log-likelihood, AICc, convergence) to this JSON file; the method then runs on columns with "
                   "nothing to fill too");
+  cmd->add_option("--draws", o->draws,
+                  "Also write M conditional sample paths per column (COLUMN_draw_1 .. COLUMN_draw_M), each the column "
+                  "filled anew from the method's model, for multiple imputation (methods with a draws parameter: "
+                  "kalman, arima)")
+      ->check(whole_number(1, kMaxDraws));
+  cmd->add_option("--seed", o->seed, "Seed of the draws (with the column's name); default 1");
   add_force_flag(*cmd, o->force);
   cmd->callback([&action, o] {
     action = [o] {
@@ -68,13 +96,23 @@ void add_fill(CLI::App& app, Action& action) {
         check_output_file(o->fit, o->force);
         check_file_is_no_input(o->fit, {o->table.input, o->out});
       }
-      auto method = MethodRegistry::global().bind(CallSpec::parse(o->method, "--method"), "--method");
+      auto method = MethodRegistry::global().bind(with_draws(CallSpec::parse(o->method, "--method"), o->draws),
+                                                  "--method");
       WideTable table = o->table.read();
       auto columns = select_columns(table, o->table.columns);
-      auto result = fill_table(table, columns, method, o->table.period, !o->fit.empty());
+      auto result = fill_table(table, columns, method, o->table.period, !o->fit.empty(), o->seed);
       std::vector<ExtraColumn> extra;
       for (std::size_t k = 0; k < columns.size(); ++k)
         extra.emplace_back(table.columns[columns[k]] + "_filled", result.flags[k]);
+      for (std::size_t k = 0; k < columns.size() && o->draws > 0; ++k)
+        for (std::size_t d = 0; d < o->draws; ++d) {
+          const auto& draws = result.reports[k].draws;
+          std::vector<std::string> cells = table.cells[columns[k]];
+          if (d < draws.size())
+            for (std::size_t i = 0; i < cells.size(); ++i)
+              if (result.flags[k][i] == "1") cells[i] = std::isfinite(draws[d][i]) ? format_double(draws[d][i]) : "";
+          extra.emplace_back(table.columns[columns[k]] + "_draw_" + std::to_string(d + 1), std::move(cells));
+        }
       const std::string csv = write_wide_csv(table, extra);
       if (!o->fit.empty()) write_file_atomically(o->fit, fits_json(method.label, result.reports).dump(2) + "\n");
       write_file_atomically(o->out, csv);

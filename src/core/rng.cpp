@@ -56,6 +56,23 @@ std::uint64_t Rng::below(std::uint64_t n) {
   return static_cast<std::uint64_t>(m >> 64);
 }
 
+double Rng::normal() {
+  if (has_spare_) {
+    has_spare_ = false;
+    return spare_;
+  }
+  double u = 0, v = 0, s = 0;
+  do {
+    u = 2 * uniform() - 1;
+    v = 2 * uniform() - 1;
+    s = u * u + v * v;
+  } while (s >= 1 || s == 0);
+  const double factor = std::sqrt(-2 * std::log(s) / s);
+  spare_ = v * factor;
+  has_spare_ = true;
+  return u * factor;
+}
+
 std::uint64_t Rng::geometric(double mean) {
   if (!(mean > 1.0)) return 1;
   // P(L = k) = (1-p)^(k-1) p with p = 1/mean; inverse CDF.

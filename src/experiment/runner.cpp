@@ -154,6 +154,8 @@ std::vector<TrialRecord> run_task(const ExperimentSpec& spec, const LoadedData& 
     rec.masked = masked;
     FillResult result;
     const auto start = std::chrono::steady_clock::now();
+    // a method's own draws: seeded from the task's key and the method, whatever the thread or order
+    fill_request.seed = task_seed(spec.seed, task_key(spec, data, task) + "|draws|" + method.label);
     try {
       check_needs(method, fill_request);
       result = method.impl->fill(fill_request);
@@ -198,7 +200,7 @@ std::vector<TrialRecord> run_task(const ExperimentSpec& spec, const LoadedData& 
     if (rec.unfilled) rec.reason = std::to_string(rec.unfilled) + " masked points left unfilled";
 
     ScoreInput score{series.values, result.values, result.variance, &mask, &series.axis, series.period,
-                     spec.holdout};
+                     spec.holdout, result.draws};
     std::size_t offset = 0;
     for (const auto& metric : spec.metrics) {
       const std::size_t width = metric.impl->columns().size();

@@ -15,6 +15,7 @@
 #include "gapmark/error.hpp"
 #include "gapmark/fill/arima_order_search.hpp"
 #include "gapmark/fill/method.hpp"
+#include "gapmark/fill/simulation_smoother.hpp"
 
 namespace gapmark {
 namespace {
@@ -53,9 +54,9 @@ Triple parse_triple(const std::string& text, const std::string& field) {
 class Arima final : public FillMethod {
 public:
   Arima(bool automatic, ar::Order order, bool seasonal_given, std::string constant, ar::SearchBounds bounds,
-        std::size_t max_seasonal_period, bool edges_nearest)
+        std::size_t max_seasonal_period, bool edges_nearest, std::size_t draws)
       : automatic_(automatic), order_(order), seasonal_given_(seasonal_given), constant_(std::move(constant)),
-        bounds_(bounds), max_seasonal_period_(max_seasonal_period), edges_nearest_(edges_nearest) {}
+        bounds_(bounds), max_seasonal_period_(max_seasonal_period), edges_nearest_(edges_nearest), draws_(draws) {}
 
   FillResult fill(const FillRequest& request) const override {
     const auto& x = request.values;
@@ -79,6 +80,7 @@ public:
     if (constant_series) {  // every model fits exactly; nothing to estimate
       for (std::size_t t = 0; t < n; ++t)
         if (std::isnan(x[t])) set(result, t, (t > first && t < last) || edges_nearest_ ? x[first] : kNaN, 0.0);
+      result.draws.assign(draws_, result.values);
       return result;
     }
 
@@ -100,6 +102,17 @@ public:
       } else {
         set(result, t, kNaN, kNaN);
       }
+    }
+    if (draws_ > 0) {
+      // the conditional sample paths; at an edge point filled with the
+      // nearest value, that value plus the draw's distance from the smoothed
+      // value (as kalman does); where the fill is left empty, so are the draws
+      Rng rng(request.seed);
+      result.draws = ar::conditional_draws(fit, x, draws_, rng);
+      for (auto& path : result.draws)
+        for (std::size_t t = 0; t < n; ++t)
+          if (std::isnan(x[t]) && (t < first || t > last))
+            path[t] = std::isnan(result.values[t]) ? kNaN : result.values[t] + (path[t] - s.mean[t]);
     }
     return result;
   }
@@ -157,6 +170,7 @@ private:
   ar::SearchBounds bounds_;
   std::size_t max_seasonal_period_;
   bool edges_nearest_;
+  std::size_t draws_;
 };
 
 ParamSpec bound_param(const char* name, int value, int max, const char* help) {
@@ -203,7 +217,7 @@ const Registration<FillMethod> registration{{
                            "order=auto: longest period whose seasonal part is searched (a seasonal model's state "
                            "grows with the period: about 1 s per fit at 24 and 2,000 points); longer periods are "
                            "searched without a seasonal part"),
-               edges_param()},
+               edges_param(), draws_param()},
     .needs = {.period = false, .uses_period = true, .siblings = false, .min_observed = 3},
     .make = [](const ParamValues& p) {
       const bool automatic = p.text("order") == "auto";
@@ -240,7 +254,7 @@ const Registration<FillMethod> registration{{
       if (automatic && !seasonal_auto) b.max_seasonal_p = b.max_seasonal_q = b.max_seasonal_d = 0;
       return std::make_unique<Arima>(automatic, o, !seasonal_auto, p.text("constant"), b,
                                      static_cast<std::size_t>(p.integer("max_seasonal_period")),
-                                     p.text("edges") == "nearest");
+                                     p.text("edges") == "nearest", static_cast<std::size_t>(p.integer("draws")));
     },
 }};
 

@@ -4,11 +4,13 @@
 
 #include "gapmark/error.hpp"
 #include "gapmark/number_format.hpp"
+#include "gapmark/rng.hpp"
 
 namespace gapmark {
 
 FillTableOutput fill_table(WideTable& table, const std::vector<std::size_t>& columns,
-                           const Bound<FillMethod>& method, std::size_t period, bool fit_complete_columns) {
+                           const Bound<FillMethod>& method, std::size_t period, bool fit_complete_columns,
+                           std::uint64_t seed) {
   FillTableOutput out;
   const std::vector<std::vector<double>> original = table.values;
   for (std::size_t c : columns) {
@@ -19,6 +21,7 @@ FillTableOutput fill_table(WideTable& table, const std::vector<std::size_t>& col
     request.values = original[c];
     request.axis = &table.axis;
     request.period = period ? period : table.axis.default_period();
+    request.seed = task_seed(seed, table.columns[c]);
     for (std::size_t s : columns) {
       if (s == c) continue;
       request.siblings.emplace_back(original[s]);
@@ -31,6 +34,7 @@ FillTableOutput fill_table(WideTable& table, const std::vector<std::size_t>& col
         FillResult result = method.impl->fill(request);
         report.clipped = result.clipped;
         report.fit = std::move(result.fit);
+        report.draws = std::move(result.draws);
         if (result.values.size() != original[c].size())
           throw MethodFailure("returned the wrong number of values");
         for (std::size_t i = 0; i < result.values.size(); ++i) {

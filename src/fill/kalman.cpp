@@ -20,6 +20,7 @@
 
 #include "gapmark/error.hpp"
 #include "gapmark/fill/method.hpp"
+#include "gapmark/fill/simulation_smoother.hpp"
 #include "gapmark/fill/state_space.hpp"
 
 namespace gapmark {
@@ -36,9 +37,9 @@ constexpr std::int64_t kMaxHarmonics = 50;
 
 class Kalman final : public FillMethod {
 public:
-  Kalman(std::string model, std::size_t harmonics, bool edges_nearest, bool value_variance)
+  Kalman(std::string model, std::size_t harmonics, bool edges_nearest, bool value_variance, std::size_t draws)
       : model_(std::move(model)), harmonics_(harmonics), edges_nearest_(edges_nearest),
-        value_variance_(value_variance) {}
+        value_variance_(value_variance), draws_(draws) {}
 
   FillResult fill(const FillRequest& request) const override {
     const auto& x = request.values;
@@ -63,6 +64,7 @@ public:
     if (data.scale == 0) {  // constant: the model's fit is exact, every variance is zero
       for (std::size_t t = 0; t < n; ++t)
         if (std::isnan(x[t])) set_fill(result, t, (t > first && t < last) || edges_nearest_ ? x[first] : kNaN, 0.0);
+      result.draws.assign(draws_, result.values);
       return result;
     }
 
@@ -98,11 +100,36 @@ public:
         set_fill(result, t, kNaN, kNaN);
       }
     }
+    if (draws_ > 0) add_draws(result, model, data, fit.variances, smooth.mean, first, last, request.seed);
     return result;
   }
 
 private:
   static constexpr double kNaN = std::numeric_limits<double>::quiet_NaN();
+
+  /// The conditional sample paths (simulation_smoother.hpp), in data units.
+  /// At an edge point filled with the nearest value, a draw is that value
+  /// plus the draw's distance from the smoothed signal (so the draws centre
+  /// on the fill); where the fill is left empty, so are the draws.
+  void add_draws(FillResult& result, const ss::StructuralModel& model, const ss::Standardised& data,
+                 const std::vector<double>& variances, const std::vector<double>& smoothed, std::size_t first,
+                 std::size_t last, std::uint64_t seed) const {
+    Rng rng(seed);  // the fit's variances are those of the standardised data, as the draws are
+    result.draws = ss::conditional_draws(model, data.z, variances, draws_, value_variance_, rng);
+    const auto& x = result.values;
+    for (auto& path : result.draws)
+      for (std::size_t t = 0; t < path.size(); ++t) {
+        if (!std::isnan(data.z[t])) {
+          path[t] = x[t];
+        } else if (std::isnan(x[t])) {
+          path[t] = kNaN;
+        } else if (t < first || t > last) {
+          path[t] = x[t] + data.scale * (path[t] - smoothed[t]);
+        } else {
+          path[t] = data.centre + data.scale * path[t];
+        }
+      }
+  }
 
   /// A variance of the standardised data in the data's squared unit, or NaN
   /// where that is no normal double (data beyond ~1e154 or below ~1e-154,
@@ -144,6 +171,7 @@ private:
   std::size_t harmonics_;
   bool edges_nearest_;
   bool value_variance_;
+  std::size_t draws_;
 };
 
 const Registration<FillMethod> registration{{
@@ -166,6 +194,7 @@ const Registration<FillMethod> registration{{
                         "k = k trigonometric harmonics of the period sharing one variance (2k states, "
                         "k below period/2; far faster for long periods)"},
                edges_param(),
+               draws_param(),
                {.name = "variance",
                 .type = ParamType::Choice,
                 .default_value = "value",
@@ -177,7 +206,8 @@ const Registration<FillMethod> registration{{
       if (p.integer("harmonics") != 0 && p.text("model") != "seasonal")
         throw InputError("kalman: harmonics", "applies to model=seasonal only (model=" + p.text("model") + ")");
       return std::make_unique<Kalman>(p.text("model"), static_cast<std::size_t>(p.integer("harmonics")),
-                                      p.text("edges") == "nearest", p.text("variance") == "value");
+                                      p.text("edges") == "nearest", p.text("variance") == "value",
+                                      static_cast<std::size_t>(p.integer("draws")));
     },
 }};
 

@@ -30,6 +30,17 @@ ParamSpec edges_param() {
           .help = "gaps before the first or after the last observation: nearest value, or left empty"};
 }
 
+ParamSpec draws_param() {
+  return {.name = "draws",
+          .type = ParamType::Integer,
+          .default_value = "0",
+          .min = 0,
+          .max = static_cast<double>(kMaxDraws),
+          .choices = {},
+          .help = "conditional sample paths to return beside the fill (simulation smoother; 0 = none): for "
+                  "multiple imputation and the sample metrics"};
+}
+
 void fill_edges_nearest(std::vector<double>& values) {
   std::size_t first = 0;
   while (first < values.size() && std::isnan(values[first])) ++first;

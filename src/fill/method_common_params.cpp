@@ -75,6 +75,16 @@ public:
         out.variance[i] = std::isfinite(out.values[i]) && std::isfinite(v) ? v : kNaN;
       }
     }
+    // draws map back exactly: a sample on the transformed scale, transformed, is a sample on the original one
+    for (auto& path : out.draws)
+      for (std::size_t i = 0; i < path.size() && i < y.size(); ++i) {
+        if (!std::isnan(request.values[i])) {
+          path[i] = request.values[i];
+          continue;
+        }
+        const double back = std::isfinite(path[i]) ? (log1p_ ? std::expm1(path[i]) : std::exp(path[i])) : kNaN;
+        path[i] = std::isfinite(back) ? back : kNaN;
+      }
     return out;
   }
 
@@ -96,6 +106,10 @@ public:
       if (v < lo_) v = lo_, ++out.clipped;
       else if (v > hi_) v = hi_, ++out.clipped;
     }
+    // draws are kept within the same bounds (not counted: `clipped` is about the fill)
+    for (auto& path : out.draws)
+      for (std::size_t i = 0; i < std::min(path.size(), request.values.size()); ++i)
+        if (std::isnan(request.values[i]) && std::isfinite(path[i])) path[i] = std::clamp(path[i], lo_, hi_);
     return out;
   }
 

@@ -82,6 +82,70 @@ public:
     return out;
   }
 
+  /// The smoothed signal's mean (no variances) for each of `ys`, which share
+  /// one pattern of missing values: the filter's covariances, gains and the
+  /// factor of S do not depend on the data, so they are computed once (from
+  /// ys[0]) and each series costs only the O(n m) mean recursions.
+  std::vector<std::vector<double>> means(const std::vector<std::vector<double>>& ys) {
+    std::vector<std::vector<double>> out;
+    if (ys.empty()) return out;
+    const std::size_t n = ys[0].size();
+    std::size_t t0 = 0;
+    while (t0 < n && std::isnan(ys[0][t0])) ++t0;
+    if (t0 == n) throw MethodFailure("no observed value to smooth");
+    forward(std::span<const double>(ys[0]).subspan(t0));
+    const Index m = m_;
+    const auto r_d = u_.topLeftCorner(m, m).triangularView<Eigen::Upper>();
+    for (Index j = 0; j < m; ++j)
+      if (!(std::abs(u_(j, j)) > kIdentified * u_.col(j).head(j + 1).norm()))
+        throw MethodFailure("too few observations to identify the " + model_.name() + " model's initial state (" +
+                            std::to_string(observed_) + " observed, " + std::to_string(m) + " states)");
+    const std::size_t steps = n - t0;
+    std::vector<double> za(steps), v(steps);
+    VectorXd a(m), s(m), r(m), state(m);
+    for (const auto& y : ys) {
+      if (y.size() != n) throw std::invalid_argument("smoothed means: series of different lengths");
+      // forward: the state mean and innovations of this series, with the stored gains
+      a.setZero();
+      s.setZero();
+      for (std::size_t i = 0; i < steps; ++i) {
+        const auto ii = static_cast<Index>(i);
+        za[i] = model_.signal_of(a);
+        const double yt = y[t0 + i];
+        if (std::isnan(yt) != !(f_[i] > 0)) throw std::invalid_argument("smoothed means: another missing pattern");
+        if (f_[i] > 0) {
+          v[i] = yt - za[i];
+          a += ms_.col(ii) * (v[i] / f_[i]);
+          s += e_.col(ii) * (v[i] / f_[i]);
+        }
+        model_.transition(a);
+      }
+      const VectorXd d = r_d.solve(r_d.transpose().solve(s));
+      std::vector<double> mean(n);
+      r.setZero();
+      for (std::size_t i = steps; i-- > 0;) {
+        const auto ii = static_cast<Index>(i);
+        const auto ms = ms_.col(ii);
+        const auto e = e_.col(ii);
+        if (f_[i] > 0) {
+          const double u = (v[i] - e.dot(d)) / f_[i];
+          times_l_transposed(r, ms, f_[i]);
+          for (Index p : design_) r(p) += u;
+        } else {
+          model_.transition_transposed(r);
+        }
+        mean[t0 + i] = za[i] + e.dot(d) + ms.dot(r);
+      }
+      state = d;
+      for (std::size_t t = t0; t-- > 0;) {
+        model_.transition_inverse(state);
+        mean[t] = model_.signal_of(state);
+      }
+      out.push_back(std::move(mean));
+    }
+    return out;
+  }
+
 private:
   /// out <- X Z' (the sum of the columns Z picks).
   void times_design(const MatrixXd& x, VectorXd& out) const {
@@ -138,6 +202,7 @@ private:
   /// Filter from the first observation; keeps per step Z a0, Z P Z', P Z', Z A, v and F.
   void forward(std::span<const double> y) {
     const Index m = m_;
+    observed_ = 0;
     const auto steps = static_cast<Index>(y.size());
     za_.assign(y.size(), 0.0);
     zpz_.assign(y.size(), 0.0);
@@ -229,6 +294,12 @@ private:
 };
 
 }  // namespace
+
+std::vector<std::vector<double>> smoothed_signal_means(const StructuralModel& model,
+                                                       const std::vector<std::vector<double>>& ys,
+                                                       std::span<const double> variances) {
+  return Augmented(model, variances).means(ys);
+}
 
 SmoothedSignal smooth_signal(const StructuralModel& model, std::span<const double> y,
                              std::span<const double> variances) {

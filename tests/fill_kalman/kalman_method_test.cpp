@@ -41,7 +41,7 @@ TEST_CASE("kalman is registered with its parameters") {
   REQUIRE(e != nullptr);
   std::vector<std::string> names;
   for (const auto& p : e->params) names.push_back(p.name);
-  CHECK(names == std::vector<std::string>{"model", "harmonics", "edges", "variance"});
+  CHECK(names == std::vector<std::string>{"model", "harmonics", "edges", "draws", "variance"});
 }
 
 TEST_CASE("observed values come back unchanged; filled points get the smoothed signal and its variance") {

@@ -8,6 +8,7 @@
 // with the nearest observed value (`edges=nearest`), or left missing
 // (`edges=leave`), in which case the scorer counts those points as unfilled.
 #include <cstddef>
+#include <cstdint>
 #include <memory>
 #include <span>
 #include <string>
@@ -29,6 +30,10 @@ struct FillRequest {
   /// so that relative paths in its command read like the spec's data paths;
   /// empty: the current directory.
   std::string working_dir;
+  /// Seeds a method's own random draws (the conditional sample paths of
+  /// `kalman` and `arima`): in a run, derived from the task's key and the
+  /// method, so draws do not depend on thread count or order.
+  std::uint64_t seed = 0;
 };
 
 struct FillResult {
@@ -36,6 +41,10 @@ struct FillResult {
   std::vector<double> variance;  ///< empty, or one per point (predictive variance)
   std::size_t clipped = 0;       ///< filled points moved into `bounds=LO,HI`
   ModelFit fit;                  ///< what a model-based method estimated; empty otherwise
+  /// Conditional sample paths (methods with `draws=M`): M series of the
+  /// request's length, observed points as given, each missing point a draw
+  /// from the model's distribution given the observed values; empty otherwise.
+  std::vector<std::vector<double>> draws;
 };
 
 class FillMethod {
@@ -66,6 +75,10 @@ void check_needs(const Bound<FillMethod>& method, const FillRequest& request);
 
 /// The shared `edges` parameter (nearest | leave).
 ParamSpec edges_param();
+/// The shared `draws` parameter of methods that can sample (0 = none).
+ParamSpec draws_param();
+/// Largest number of draws a method accepts.
+inline constexpr std::int64_t kMaxDraws = 10000;
 /// Fills leading and trailing gaps of `values` with the nearest observed value.
 void fill_edges_nearest(std::vector<double>& values);
 

@@ -178,6 +178,15 @@ struct SmoothedSignal {
 SmoothedSignal smooth_signal(const StructuralModel& model, std::span<const double> y,
                              std::span<const double> variances);
 
+/// The smoothed signal's mean alone for several series that share one
+/// pattern of missing values (the same pass as smooth_signal, with the
+/// covariances computed once): what the simulation smoother needs. Throws
+/// MethodFailure as smooth_signal does, std::invalid_argument when the
+/// series differ in length or missing pattern.
+std::vector<std::vector<double>> smoothed_signal_means(const StructuralModel& model,
+                                                       const std::vector<std::vector<double>>& ys,
+                                                       std::span<const double> variances);
+
 /// Observed values centred and scaled to unit (population) variance, without
 /// overflow for huge magnitudes: z = (y - centre) / scale, NaN kept. A
 /// constant or all-missing series has scale 0 and z all NaN.

@@ -45,6 +45,8 @@ struct ScoreInput {
   const TimeAxis* axis = nullptr;
   std::size_t period = 0;
   std::size_t holdout = 0;
+  /// Conditional sample paths (methods with draws), each the series' length; empty otherwise.
+  std::span<const std::vector<double>> draws;
 };
 
 class Metric {
