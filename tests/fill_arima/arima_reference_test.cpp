@@ -75,7 +75,9 @@ TEST_CASE("arima: ML fits match R's arima() on open data with values removed") {
     CHECK(f.log_likelihood == doctest::Approx(r["loglik"].get<double>()).epsilon(0).scale(1).epsilon(1e-4));
     CHECK(f.sigma2 == doctest::Approx(r["sigma2"].get<double>()).epsilon(2e-3));
     const auto ours = named(f);
-    for (const auto& [key, value] : r["coef"].items()) {
+    for (const auto& item : r["coef"].items()) {
+      const std::string key = item.key();  // not a structured binding: clang 14 cannot capture one in INFO
+      const auto& value = item.value();
       INFO(key);
       REQUIRE(ours.count(key) == 1);
       CHECK(ours.at(key) == doctest::Approx(value.get<double>()).epsilon(0).scale(1).epsilon(2e-3));
@@ -135,7 +137,9 @@ TEST_CASE("arima: ML coefficients match statsmodels SARIMAX where its likelihood
     const auto ours = named(f);
     const std::map<std::string, std::string> keys{{"ar.L1", "ar1"}, {"ar.L2", "ar2"}, {"ma.L1", "ma1"},
                                                   {"ar.S.L12", "sar1"}, {"ma.S.L12", "sma1"}};
-    for (const auto& [key, value] : sm["params"].items()) {
+    for (const auto& item : sm["params"].items()) {
+      const std::string key = item.key();  // not a structured binding: clang 14 cannot capture one in INFO
+      const auto& value = item.value();
       if (!keys.count(key)) continue;
       INFO(key);
       CHECK(ours.at(keys.at(key)) == doctest::Approx(value.get<double>()).epsilon(0).scale(1).epsilon(5e-3));
