@@ -47,19 +47,12 @@ public:
 
   SmoothedSignal smooth(std::span<const double> y) {
     const std::size_t n = y.size();
-    std::size_t t0 = 0;
-    while (t0 < n && std::isnan(y[t0])) ++t0;
     SmoothedSignal out;
     out.mean.assign(n, std::numeric_limits<double>::quiet_NaN());
     out.variance.assign(n, std::numeric_limits<double>::quiet_NaN());
-    if (t0 == n) throw MethodFailure("no observed value to smooth");
-    forward(y.subspan(t0));
+    const std::size_t t0 = filter_from_first_observed(y);
     const Index m = m_;
     const auto r_d = u_.topLeftCorner(m, m).triangularView<Eigen::Upper>();
-    for (Index j = 0; j < m; ++j)
-      if (!(std::abs(u_(j, j)) > kIdentified * u_.col(j).head(j + 1).norm()))
-        throw MethodFailure("too few observations to identify the " + model_.name() + " model's initial state (" +
-                            std::to_string(observed_) + " observed, " + std::to_string(m) + " states)");
     const VectorXd d = r_d.solve(u_.col(m).head(m));  // posterior mean of the initial state
     backward(y.subspan(t0), d, out.mean, out.variance, t0);
 
@@ -90,16 +83,9 @@ public:
     std::vector<std::vector<double>> out;
     if (ys.empty()) return out;
     const std::size_t n = ys[0].size();
-    std::size_t t0 = 0;
-    while (t0 < n && std::isnan(ys[0][t0])) ++t0;
-    if (t0 == n) throw MethodFailure("no observed value to smooth");
-    forward(std::span<const double>(ys[0]).subspan(t0));
+    const std::size_t t0 = filter_from_first_observed(ys[0]);
     const Index m = m_;
     const auto r_d = u_.topLeftCorner(m, m).triangularView<Eigen::Upper>();
-    for (Index j = 0; j < m; ++j)
-      if (!(std::abs(u_(j, j)) > kIdentified * u_.col(j).head(j + 1).norm()))
-        throw MethodFailure("too few observations to identify the " + model_.name() + " model's initial state (" +
-                            std::to_string(observed_) + " observed, " + std::to_string(m) + " states)");
     const std::size_t steps = n - t0;
     std::vector<double> za(steps), v(steps);
     VectorXd a(m), s(m), r(m), state(m);
@@ -200,6 +186,21 @@ private:
   }
 
   /// Filter from the first observation; keeps per step Z a0, Z P Z', P Z', Z A, v and F.
+  /// Runs the filter from the first observed value of `y` and checks that
+  /// the observations identify the initial state; returns that first index.
+  std::size_t filter_from_first_observed(std::span<const double> y) {
+    std::size_t t0 = 0;
+    while (t0 < y.size() && std::isnan(y[t0])) ++t0;
+    if (t0 == y.size()) throw MethodFailure("no observed value to smooth");
+    forward(y.subspan(t0));
+    const Index m = m_;
+    for (Index j = 0; j < m; ++j)
+      if (!(std::abs(u_(j, j)) > kIdentified * u_.col(j).head(j + 1).norm()))
+        throw MethodFailure("too few observations to identify the " + model_.name() + " model's initial state (" +
+                            std::to_string(observed_) + " observed, " + std::to_string(m) + " states)");
+    return t0;
+  }
+
   void forward(std::span<const double> y) {
     const Index m = m_;
     observed_ = 0;
