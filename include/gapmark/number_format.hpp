@@ -1,6 +1,6 @@
 #pragma once
 // Numbers in and out: shortest text that reads back to the same double,
-// and strict parsing of a whole cell.
+// short forms for people, and strict parsing of a whole cell.
 #include <optional>
 #include <string>
 #include <string_view>
@@ -10,6 +10,9 @@ namespace gapmark {
 /// Shortest decimal form that reads back exactly ("0.1", "1e+300", "-2.5").
 /// NaN is written as "" by callers that write CSV; this returns "nan" for it.
 std::string format_double(double value);
+
+/// Four significant digits for people ("0.1235", "1.235e+05"); "n/a" for NaN.
+std::string short_number(double value);
 
 /// Parses the whole of `text` (surrounding blanks allowed) as a finite or
 /// infinite double; nullopt when it is not a number.

@@ -7,6 +7,7 @@
 #include <numeric>
 #include <tuple>
 
+#include "gapmark/json_number.hpp"
 #include "gapmark/number_format.hpp"
 #include "gapmark/rng.hpp"
 #include "gapmark/stats/bootstrap.hpp"
@@ -395,10 +396,6 @@ std::vector<Warning> all_warnings(const ResultSet& results, const Summary& summa
   return out;
 }
 
-namespace {
-nlohmann::json num(double v) { return std::isfinite(v) ? nlohmann::json(v) : nlohmann::json(nullptr); }
-}  // namespace
-
 nlohmann::json summary_to_json(const Summary& summary, const ResultSet& results) {
   nlohmann::json groups = nlohmann::json::array();
   for (const auto& g : summary.groups) {
@@ -407,17 +404,17 @@ nlohmann::json summary_to_json(const Summary& summary, const ResultSet& results)
       nlohmann::json metrics = nlohmann::json::object();
       for (std::size_t c = 0; c < results.columns.size(); ++c) {
         const auto& s = m.metrics[c];
-        metrics[results.columns[c].name] = {{"mean", num(s.mean)}, {"sd", num(s.sd)},
-                                            {"ci_low", num(s.ci_low)}, {"ci_high", num(s.ci_high)},
+        metrics[results.columns[c].name] = {{"mean", json_number(s.mean)}, {"sd", json_number(s.sd)},
+                                            {"ci_low", json_number(s.ci_low)}, {"ci_high", json_number(s.ci_high)},
                                             {"n", s.n}};
       }
       methods.push_back({{"method", m.method},
                          {"rank", m.rank},
-                         {"mean_rank", num(m.mean_rank)},
+                         {"mean_rank", json_number(m.mean_rank)},
                          {"standing", standing_name(m.standing)},
-                         {"p_vs_best", num(m.p_vs_best)},
-                         {"p_equivalent", num(m.p_equivalent)},
-                         {"relative_difference", num(m.relative_difference)},
+                         {"p_vs_best", json_number(m.p_vs_best)},
+                         {"p_equivalent", json_number(m.p_equivalent)},
+                         {"relative_difference", json_number(m.relative_difference)},
                          {"trials", m.trials},
                          {"failures", m.failures},
                          {"metrics", metrics}});
@@ -428,10 +425,10 @@ nlohmann::json summary_to_json(const Summary& summary, const ResultSet& results)
                       {"replicates", g.replicates},
                       {"replicates_mask_failed", g.mask_failed},
                       {"replicates_needed", g.replicates_needed},
-                      {"noise", num(g.noise)},
-                      {"equivalence_margin", num(g.margin)},
-                      {"friedman_statistic", num(g.friedman_statistic)},
-                      {"friedman_p", num(g.friedman_p)},
+                      {"noise", json_number(g.noise)},
+                      {"equivalence_margin", json_number(g.margin)},
+                      {"friedman_statistic", json_number(g.friedman_statistic)},
+                      {"friedman_p", json_number(g.friedman_p)},
                       {"methods", methods}});
   }
   nlohmann::json excluded = nlohmann::json::array();
@@ -440,16 +437,16 @@ nlohmann::json summary_to_json(const Summary& summary, const ResultSet& results)
   nlohmann::json across = nlohmann::json::array();
   for (const auto& a : summary.across) {
     nlohmann::json ranks = nlohmann::json::object();
-    for (std::size_t i = 0; i < a.methods.size(); ++i) ranks[a.methods[i]] = num(a.mean_ranks[i]);
+    for (std::size_t i = 0; i < a.methods.size(); ++i) ranks[a.methods[i]] = json_number(a.mean_ranks[i]);
     across.push_back({{"scheme", a.scheme.empty() ? nlohmann::json(nullptr) : nlohmann::json(a.scheme)},
-                      {"rate", a.scheme.empty() ? nlohmann::json(nullptr) : num(a.rate)},
+                      {"rate", a.scheme.empty() ? nlohmann::json(nullptr) : json_number(a.rate)},
                       {"datasets", a.datasets},
                       {"mean_ranks", ranks},
-                      {"friedman_chi2", num(a.friedman_chi2)},
-                      {"friedman_p", num(a.friedman_p)},
-                      {"iman_davenport_f", num(a.iman_davenport_f)},
-                      {"iman_davenport_p", num(a.iman_davenport_p)},
-                      {"critical_difference", num(a.critical_difference)}});
+                      {"friedman_chi2", json_number(a.friedman_chi2)},
+                      {"friedman_p", json_number(a.friedman_p)},
+                      {"iman_davenport_f", json_number(a.iman_davenport_f)},
+                      {"iman_davenport_p", json_number(a.iman_davenport_p)},
+                      {"critical_difference", json_number(a.critical_difference)}});
   }
   return {{"rank_by", summary.rank_by},
           {"alpha", summary.alpha},

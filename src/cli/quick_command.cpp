@@ -18,7 +18,7 @@
 #include "gapmark/experiment/runner.hpp"
 #include "gapmark/analysis/summary.hpp"
 #include "gapmark/report/reporter.hpp"
-#include "gapmark/report/table_text.hpp"
+#include "gapmark/number_format.hpp"
 
 namespace gapmark::cli {
 

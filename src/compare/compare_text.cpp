@@ -4,8 +4,9 @@
 #include <cmath>
 
 #include "gapmark/compare/compare.hpp"
+#include "gapmark/json_number.hpp"
 #include "gapmark/number_format.hpp"
-#include "gapmark/report/table_text.hpp"
+#include "gapmark/text_table.hpp"
 
 namespace gapmark {
 namespace {
@@ -20,34 +21,11 @@ std::string signed_percent(double v) {
   return (v > 0 ? "+" : "") + short_number(100 * v) + "%";
 }
 
-/// Columns padded to their widest cell; the first three left-aligned.
+/// Columns padded to their widest cell: the first two and the last left-aligned, numbers between them right.
 std::string text_table(const std::vector<std::string>& header, const std::vector<std::vector<std::string>>& rows) {
-  std::vector<std::size_t> width(header.size(), 0);
-  auto length = [](const std::string& s) {  // display width: count UTF-8 lead bytes
-    std::size_t n = 0;
-    for (unsigned char c : s) n += (c & 0xC0) != 0x80;
-    return n;
-  };
-  for (std::size_t i = 0; i < header.size(); ++i) width[i] = length(header[i]);
-  for (const auto& r : rows)
-    for (std::size_t i = 0; i < r.size() && i < width.size(); ++i) width[i] = std::max(width[i], length(r[i]));
-  auto line = [&](const std::vector<std::string>& r) {
-    std::string out;
-    for (std::size_t i = 0; i < r.size(); ++i) {
-      const std::string pad(width[i] - length(r[i]), ' ');
-      out += (i ? "  " : "") + (i < 2 || i + 1 == r.size() ? r[i] + (i + 1 == r.size() ? "" : pad) : pad + r[i]);
-    }
-    return out + "\n";
-  };
-  std::string out = line(header);
-  std::vector<std::string> rule;
-  for (auto w : width) rule.emplace_back(w, '-');
-  out += line(rule);
-  for (const auto& r : rows) out += line(r);
-  return out;
+  return gapmark::text_table(header, rows, {.right_from = 2, .right_until = header.size() - 1, .rule = true});
 }
 
-nlohmann::json num(double v) { return std::isfinite(v) ? nlohmann::json(v) : nlohmann::json(nullptr); }
 
 /// How bad a metric change is, for ordering: regressions first, then by how
 /// far past its allowance it went.
@@ -193,16 +171,16 @@ nlohmann::json comparison_to_json(const Comparison& c) {
     for (const auto& m : cell.metrics)
       metrics.push_back({{"metric", m.metric},
                          {"direction", to_string(m.direction)},
-                         {"baseline_mean", num(m.baseline_mean)},
-                         {"current_mean", num(m.current_mean)},
-                         {"change", num(m.change)},
-                         {"relative_change", num(m.relative_change)},
-                         {"worsening", num(m.worsening)},
-                         {"allowed", num(m.allowed)},
+                         {"baseline_mean", json_number(m.baseline_mean)},
+                         {"current_mean", json_number(m.current_mean)},
+                         {"change", json_number(m.change)},
+                         {"relative_change", json_number(m.relative_change)},
+                         {"worsening", json_number(m.worsening)},
+                         {"allowed", json_number(m.allowed)},
                          {"pairs", m.pairs},
                          {"tested", m.tested},
-                         {"p", num(m.p)},
-                         {"p_holm", num(m.p_holm)},
+                         {"p", json_number(m.p)},
+                         {"p_holm", json_number(m.p_holm)},
                          {"verdict", to_string(m.verdict)}});
     cells.push_back({{"name", cell.name()},
                      {"series", cell.series},

@@ -3,6 +3,7 @@
 #include <array>
 #include <charconv>
 #include <cmath>
+#include <cstdio>
 
 namespace gapmark {
 
@@ -13,6 +14,13 @@ std::string format_double(double value) {
   std::array<char, 64> buffer{};
   auto [end, ec] = std::to_chars(buffer.data(), buffer.data() + buffer.size(), value);
   return std::string(buffer.data(), end);
+}
+
+std::string short_number(double value) {
+  if (std::isnan(value)) return "n/a";
+  char buffer[32];
+  std::snprintf(buffer, sizeof buffer, "%.4g", value);
+  return buffer;
 }
 
 std::string_view trim(std::string_view text) {

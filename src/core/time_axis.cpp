@@ -12,60 +12,28 @@
 #include <stdexcept>
 #include <vector>
 
+#include "gapmark/calendar.hpp"
 #include "gapmark/error.hpp"
 #include "gapmark/number_format.hpp"
 
 namespace gapmark {
 namespace {
 
-constexpr std::int64_t kDay = 86400;
-constexpr std::int64_t kWeek = 7 * kDay;
-constexpr int kMonthEnd = 31;  // month_day 31: the last day of every month
-
-std::int64_t floor_div(std::int64_t a, std::int64_t b) {
-  std::int64_t q = a / b;
-  if ((a % b != 0) && ((a < 0) != (b < 0))) --q;
-  return q;
-}
-
-// A wall-clock time split into its calendar date and seconds into the day.
-struct Civil {
-  int year;
-  unsigned month;
-  unsigned day;
-  std::int64_t second_of_day;
-};
-
-Civil to_civil(std::int64_t seconds) {
-  const std::int64_t days = floor_div(seconds, kDay);
-  const date::year_month_day ymd{date::sys_days{date::days{days}}};
-  return {int(ymd.year()), unsigned(ymd.month()), unsigned(ymd.day()), seconds - days * kDay};
-}
-
-std::int64_t days_from_civil(int year, unsigned month, unsigned day) {
-  const date::sys_days days{date::year{year} / date::month{month} / date::day{day}};
-  return days.time_since_epoch().count();
-}
-
-unsigned last_day_of_month(int year, unsigned month) {
-  return unsigned((date::year{year} / date::month{month} / date::last).day());
-}
-
-bool is_month_end(const Civil& c) { return c.day == last_day_of_month(c.year, c.month); }
-
-std::int64_t month_number(const Civil& c) { return std::int64_t(c.year) * 12 + (c.month - 1); }
+using calendar::Civil;
+using calendar::floor_div;
+using calendar::is_month_end;
+using calendar::kMonthEnd;
+using calendar::last_day_of_month;
+using calendar::month_number;
+using calendar::to_civil;
+constexpr std::int64_t kDay = calendar::kSecondsPerDay;
+constexpr std::int64_t kWeek = calendar::kSecondsPerWeek;
 
 // Moves `months` calendar months from `value`, onto day `month_day` (0: the
 // value's own day) clamped to the length of the month reached.
 std::int64_t add_months(std::int64_t value, std::int64_t months, int month_day) {
   const Civil c = to_civil(value);
-  const std::int64_t target = month_number(c) + months;
-  const std::int64_t year = floor_div(target, 12);
-  if (year < -32767 || year > 32767) throw std::out_of_range("time outside the years -32767..32767");
-  const unsigned month = unsigned(target - year * 12) + 1;
-  const unsigned wanted = month_day > 0 ? unsigned(month_day) : c.day;
-  const unsigned day = std::min(wanted, last_day_of_month(int(year), month));
-  return days_from_civil(int(year), month, day) * kDay + c.second_of_day;
+  return calendar::month_point(month_number(c) + months, month_day > 0 ? month_day : int(c.day), c.second_of_day);
 }
 
 // ---- parsing helpers -------------------------------------------------------
@@ -282,24 +250,11 @@ std::string offset_name(const TimePoint& t) {
 // For dates that all fall on one day of month (clamped in shorter months), or
 // all on month-ends: that day (31 for month-ends). nullopt otherwise.
 std::optional<int> month_anchor(std::span<const TimePoint> times) {
-  std::vector<Civil> civil;
-  civil.reserve(times.size());
-  for (const TimePoint& t : times) civil.push_back(to_civil(t.value));
-  const auto same_time_of_day = [&](const Civil& c) {
-    return c.second_of_day == civil.front().second_of_day;
-  };
-  if (!std::all_of(civil.begin(), civil.end(), same_time_of_day)) return std::nullopt;
-  const auto same_day = [&](const Civil& c) { return c.day == civil.front().day; };
-  if (std::all_of(civil.begin(), civil.end(), same_day)) return int(civil.front().day);
-  if (std::all_of(civil.begin(), civil.end(), is_month_end)) return kMonthEnd;
-  // Monthly on day D, clamped to the month's end in months shorter than D.
-  unsigned anchor = 0;
-  for (const Civil& c : civil) anchor = std::max(anchor, c.day);
-  const auto on_anchor = [&](const Civil& c) {
-    return c.day == anchor || (c.day < anchor && is_month_end(c));
-  };
-  if (std::all_of(civil.begin(), civil.end(), on_anchor)) return int(anchor);
-  return std::nullopt;
+  std::vector<std::int64_t> values;
+  values.reserve(times.size());
+  for (const TimePoint& t : times) values.push_back(t.value);
+  const int day = calendar::month_anchor_day(values);
+  return day == 0 ? std::nullopt : std::optional<int>(day);
 }
 
 std::string line_where(std::string_view file, std::size_t line) {

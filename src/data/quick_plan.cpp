@@ -8,7 +8,7 @@
 
 #include "gapmark/data/text_columns.hpp"
 #include "gapmark/error.hpp"
-#include "gapmark/report/table_text.hpp"
+#include "gapmark/number_format.hpp"
 
 namespace gapmark::data {
 namespace {

@@ -1,43 +1,15 @@
 // Plain-text tables for the terminal (see text_columns.hpp).
 #include "gapmark/data/text_columns.hpp"
 
-#include <algorithm>
 #include <cmath>
 #include <cstdio>
 
+#include "gapmark/text_table.hpp"
+
 namespace gapmark::data {
-namespace {
-
-// Display width: counts UTF-8 code points, not bytes.
-std::size_t width(const std::string& s) {
-  std::size_t n = 0;
-  for (unsigned char c : s) n += (c & 0xC0) != 0x80;
-  return n;
-}
-
-}  // namespace
-
 std::string aligned_table(const std::vector<std::string>& header, const std::vector<std::vector<std::string>>& rows,
                           std::size_t first_numeric, std::size_t indent) {
-  std::vector<std::size_t> w(header.size(), 0);
-  for (std::size_t c = 0; c < header.size(); ++c) w[c] = width(header[c]);
-  for (const auto& row : rows)
-    for (std::size_t c = 0; c < row.size() && c < w.size(); ++c) w[c] = std::max(w[c], width(row[c]));
-  std::string out;
-  const auto line = [&](const std::vector<std::string>& cells) {
-    std::string text(indent, ' ');
-    for (std::size_t c = 0; c < w.size(); ++c) {
-      const std::string cell = c < cells.size() ? cells[c] : "";
-      const std::string pad(w[c] - width(cell), ' ');
-      if (c > 0) text += "  ";
-      text += c >= first_numeric ? pad + cell : cell + (c + 1 < w.size() ? pad : "");
-    }
-    while (!text.empty() && text.back() == ' ') text.pop_back();
-    out += text + "\n";
-  };
-  line(header);
-  for (const auto& row : rows) line(row);
-  return out;
+  return text_table(header, rows, {.right_from = first_numeric, .indent = indent});
 }
 
 std::string percent(double share) {

@@ -1,64 +1,25 @@
 // Calendar bins and grids for raw times (see time_grid.hpp). Calendar facts
-// (days from civil dates, weekdays, month lengths) come from the date library.
+// (civil dates, month numbers and lengths) come from core's calendar.hpp.
 #include "gapmark/data/time_grid.hpp"
-
-#include <date/date.h>
 
 #include <algorithm>
 #include <map>
 #include <stdexcept>
 #include <vector>
 
+#include "gapmark/calendar.hpp"
 #include "gapmark/error.hpp"
 
 namespace gapmark::data {
 namespace {
 
-constexpr std::int64_t kDay = 86400;
-constexpr std::int64_t kWeek = 7 * kDay;
-
-std::int64_t floor_div(std::int64_t a, std::int64_t b) {
-  std::int64_t q = a / b;
-  if ((a % b != 0) && ((a < 0) != (b < 0))) --q;
-  return q;
-}
-
-struct Civil {
-  int year;
-  unsigned month, day;
-  std::int64_t second_of_day;
-};
-
-Civil civil(std::int64_t t) {
-  const std::int64_t days = floor_div(t, kDay);
-  const date::year_month_day ymd{date::sys_days{date::days{days}}};
-  return {int(ymd.year()), unsigned(ymd.month()), unsigned(ymd.day()), t - days * kDay};
-}
-
-std::int64_t month_number(std::int64_t t) {
-  const Civil c = civil(t);
-  return std::int64_t(c.year) * 12 + (c.month - 1);
-}
-
-unsigned month_length(int year, unsigned month) {
-  return unsigned((date::year{year} / date::month{month} / date::last).day());
-}
-
-std::int64_t from_civil(int year, unsigned month, unsigned day, std::int64_t second_of_day) {
-  const date::sys_days d{date::year{year} / date::month{month} / date::day{day}};
-  return std::int64_t(d.time_since_epoch().count()) * kDay + second_of_day;
-}
-
-/// The time `months` months after month number `base` on day `month_day`
-/// (clamped to the month's length), at `second_of_day`.
-std::int64_t month_point(std::int64_t number, int month_day, std::int64_t second_of_day) {
-  const std::int64_t year = floor_div(number, 12);
-  const unsigned month = unsigned(number - year * 12) + 1;
-  const unsigned day = std::min(unsigned(month_day), month_length(int(year), month));
-  return from_civil(int(year), month, day, second_of_day);
-}
-
-bool is_month_end(const Civil& c) { return c.day == month_length(c.year, c.month); }
+using calendar::Civil;
+using calendar::floor_div;
+using calendar::is_month_end;
+using calendar::month_number;
+using calendar::month_point;
+constexpr std::int64_t kDay = calendar::kSecondsPerDay;
+constexpr std::int64_t kWeek = calendar::kSecondsPerWeek;
 
 }  // namespace
 
@@ -148,7 +109,7 @@ std::optional<std::int64_t> grid_offset(TimeKind kind, const Step& step, std::in
     return d / step.amount;
   }
   if (kind == TimeKind::Index) return std::nullopt;
-  const Civil a = civil(from);
+  const Civil a = calendar::to_civil(from);
   const std::int64_t k = month_number(to) - month_number(from);
   if (k % step.amount != 0) return std::nullopt;
   const int day = month_day > 0 ? month_day : int(a.day);
@@ -158,31 +119,15 @@ std::optional<std::int64_t> grid_offset(TimeKind kind, const Step& step, std::in
 
 std::int64_t grid_phase_key(TimeKind kind, const Step& step, std::int64_t t) {
   if (step.unit != Step::Unit::Months || kind == TimeKind::Index) return ((t % step.amount) + step.amount) % step.amount;
-  const Civil c = civil(t);
+  const Civil c = calendar::to_civil(t);
   const std::int64_t m = ((month_number(t) % step.amount) + step.amount) % step.amount;
   const std::int64_t day = is_month_end(c) ? 31 : c.day;
   return (m * 32 + day) * kDay + c.second_of_day;
 }
 
-int month_anchor_day(std::span<const std::int64_t> times) {
-  if (times.empty()) return 0;
-  std::vector<Civil> c;
-  c.reserve(times.size());
-  for (auto t : times) c.push_back(civil(t));
-  for (const auto& x : c)
-    if (x.second_of_day != c.front().second_of_day) return 0;
-  if (std::all_of(c.begin(), c.end(), [&](const Civil& x) { return x.day == c.front().day; })) return int(c.front().day);
-  if (std::all_of(c.begin(), c.end(), is_month_end)) return 31;
-  unsigned anchor = 0;
-  for (const auto& x : c) anchor = std::max(anchor, x.day);
-  if (std::all_of(c.begin(), c.end(), [&](const Civil& x) { return x.day == anchor || (x.day < anchor && is_month_end(x)); }))
-    return int(anchor);
-  return 0;
-}
-
 std::optional<Step> infer_step(TimeKind kind, std::span<const std::int64_t> sorted_runs,
                                std::span<const std::size_t> run_ends) {
-  const bool months = kind != TimeKind::Index && month_anchor_day(sorted_runs) != 0;
+  const bool months = kind != TimeKind::Index && calendar::month_anchor_day(sorted_runs) != 0;
   std::map<std::int64_t, std::size_t> counts;
   std::size_t begin = 0;
   for (std::size_t end : run_ends) {

@@ -11,6 +11,7 @@
 #include <fstream>
 #include <unordered_set>
 
+#include "gapmark/json_number.hpp"
 #include "gapmark/error.hpp"
 #include "gapmark/experiment/record_checks.hpp"
 
@@ -19,7 +20,6 @@ namespace {
 
 using nlohmann::json;
 
-json number_or_null(double v) { return std::isfinite(v) ? json(v) : json(nullptr); }
 
 std::int64_t now_seconds() {
   return std::chrono::duration_cast<std::chrono::seconds>(std::chrono::steady_clock::now().time_since_epoch())
@@ -104,9 +104,9 @@ std::string task_line(std::size_t task, const std::vector<TrialRecord>& trials,
   json t = json::array();
   for (const auto& r : trials) {
     json metrics = json::array();
-    for (double v : r.metrics) metrics.push_back(number_or_null(v));
+    for (double v : r.metrics) metrics.push_back(json_number(v));
     json rec = {{"status", trial_status_name(r.status)}, {"masked", r.masked}, {"unfilled", r.unfilled},
-                {"seconds", number_or_null(r.seconds)}, {"metrics", std::move(metrics)}};
+                {"seconds", json_number(r.seconds)}, {"metrics", std::move(metrics)}};
     if (!r.reason.empty()) rec["reason"] = r.reason;
     if (r.clipped) rec["clipped"] = r.clipped;
     if (!r.fit.empty()) rec["fit"] = fit_to_json(r.fit);

@@ -4,6 +4,7 @@
 #include <cmath>
 #include <vector>
 
+#include "gapmark/json_number.hpp"
 #include "gapmark/error.hpp"
 #include "gapmark/parallel_for.hpp"
 #include "gapmark/rng.hpp"
@@ -12,7 +13,6 @@
 namespace gapmark {
 namespace {
 
-nlohmann::json num(double v) { return std::isfinite(v) ? nlohmann::json(v) : nlohmann::json(nullptr); }
 
 /// The largest lag: the spec's "acf" metric setting when it gives one, else
 /// twice the period, or 24 without a period; at most n - 1.
@@ -65,7 +65,7 @@ nlohmann::json acf_json(std::span<const double> truth, std::span<const double> v
     if (std::isnan(truth[i])) x[i] = std::nan("");
   nlohmann::json out = nlohmann::json::array();
   const auto r = stats::sample_autocorrelation(x, lags);
-  for (std::size_t k = 1; k < r.size(); ++k) out.push_back(num(r[k]));
+  for (std::size_t k = 1; k < r.size(); ++k) out.push_back(json_number(r[k]));
   return out;
 }
 
@@ -111,7 +111,7 @@ nlohmann::json example_for(const ExperimentSpec& spec, const LoadedData& data, c
   ex["step"] = series.axis.step().iso();
   nlohmann::json truth = nlohmann::json::array(), shown_mask = nlohmann::json::array();
   for (std::size_t i = start; i < start + width; ++i) {
-    truth.push_back(num(series.values[i]));
+    truth.push_back(json_number(series.values[i]));
     shown_mask.push_back(static_cast<int>(mask[i]));
   }
   ex["truth"] = truth;
@@ -156,7 +156,7 @@ nlohmann::json example_for(const ExperimentSpec& spec, const LoadedData& data, c
       }
     }
     nlohmann::json values = nlohmann::json::array();
-    for (std::size_t i = start; i < start + width; ++i) values.push_back(mask[i] ? num(filled[i]) : nullptr);
+    for (std::size_t i = start; i < start + width; ++i) values.push_back(mask[i] ? json_number(filled[i]) : nullptr);
     entry["status"] = trial_status_name(complete ? TrialStatus::Ok : TrialStatus::Partial);
     entry["filled"] = values;
     methods.push_back(entry);

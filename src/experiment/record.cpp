@@ -2,6 +2,7 @@
 
 #include <cmath>
 
+#include "gapmark/json_number.hpp"
 #include "gapmark/error.hpp"
 #include "gapmark/experiment/record_checks.hpp"
 #include "gapmark/number_format.hpp"
@@ -44,7 +45,7 @@ nlohmann::json trial_to_json(const TrialRecord& t, const std::vector<MetricColum
   nlohmann::json metrics = nlohmann::json::object();
   for (std::size_t i = 0; i < columns.size(); ++i) {
     const double v = i < t.metrics.size() ? t.metrics[i] : std::nan("");
-    metrics[columns[i].name] = std::isfinite(v) ? nlohmann::json(v) : nlohmann::json(nullptr);
+    metrics[columns[i].name] = json_number(v);
   }
   nlohmann::json out = {{"series", t.series},
                         {"scheme", t.scheme},

@@ -11,6 +11,7 @@
 
 #include "gapmark/fill/knots.hpp"
 #include "gapmark/fill/method.hpp"
+#include "interpolating_method.hpp"
 
 // LAPACK (Fortran interface): solves A X = B for a symmetric positive
 // definite tridiagonal A (diagonal d, off-diagonal e); B is overwritten by X.
@@ -50,40 +51,30 @@ std::vector<double> natural_second_derivatives(const Knots& k) {
   return M;
 }
 
-class NaturalSpline final : public FillMethod {
-public:
-  explicit NaturalSpline(std::string edges) : edges_(std::move(edges)) {}
-
-  FillResult fill(const FillRequest& request) const override {
-    check_needs(kNeeds, request);
-    const Knots k = observed_knots(request.values);
-    const std::vector<double> M = natural_second_derivatives(k);
-    // Knots are indices, so the gap points between knots j and j+1 are the
-    // integers strictly between them: one pass over the intervals, O(n).
-    FillResult result;
-    result.values.assign(request.values.begin(), request.values.end());
-    for (std::size_t j = 0; j + 1 < k.size(); ++j) {
-      const double x0 = k.x[j], x1 = k.x[j + 1], h = x1 - x0;
-      for (auto i = static_cast<std::size_t>(x0) + 1; i < static_cast<std::size_t>(x1); ++i) {
-        const double t = static_cast<double>(i) - x0, u = x1 - static_cast<double>(i);
-        result.values[i] = (M[j] * u * u * u + M[j + 1] * t * t * t) / (6.0 * h) +
-                           (k.y[j] / h - M[j] * h / 6.0) * u + (k.y[j + 1] / h - M[j + 1] * h / 6.0) * t;
-      }
+/// The spline's values at the gap points inside the observed span. Knots are
+/// indices, so the gap points between knots j and j+1 are the integers
+/// strictly between them: one pass over the intervals, O(n).
+std::vector<double> spline_inside_span(std::span<const double> values) {
+  const Knots k = observed_knots(values);
+  const std::vector<double> M = natural_second_derivatives(k);
+  std::vector<double> out(values.begin(), values.end());
+  for (std::size_t j = 0; j + 1 < k.size(); ++j) {
+    const double x0 = k.x[j], x1 = k.x[j + 1], h = x1 - x0;
+    for (auto i = static_cast<std::size_t>(x0) + 1; i < static_cast<std::size_t>(x1); ++i) {
+      const double t = static_cast<double>(i) - x0, u = x1 - static_cast<double>(i);
+      out[i] = (M[j] * u * u * u + M[j + 1] * t * t * t) / (6.0 * h) + (k.y[j] / h - M[j] * h / 6.0) * u +
+               (k.y[j + 1] / h - M[j + 1] * h / 6.0) * t;
     }
-    apply_edges(result.values, edges_);
-    return result;
   }
-
-private:
-  std::string edges_;
-};
+  return out;
+}
 
 const Registration<FillMethod> registration{{
     .name = "natural-spline",
     .summary = "natural cubic spline through the observed points (smooth, may overshoot)",
     .params = {edges_param()},
     .needs = kNeeds,
-    .make = [](const ParamValues& p) { return std::make_unique<NaturalSpline>(p.text("edges")); },
+    .make = [](const ParamValues& p) { return interpolating_method(spline_inside_span, p); },
 }};
 
 }  // namespace

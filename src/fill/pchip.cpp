@@ -24,6 +24,7 @@
 
 #include "gapmark/fill/knots.hpp"
 #include "gapmark/fill/method.hpp"
+#include "interpolating_method.hpp"
 
 namespace gapmark {
 namespace {
@@ -73,29 +74,19 @@ std::function<double(double)> pchip_curve(Knots k) {
   return curve;
 }
 
-class Pchip final : public FillMethod {
-public:
-  explicit Pchip(std::string edges) : edges_(std::move(edges)) {}
-
-  FillResult fill(const FillRequest& request) const override {
-    check_needs(kNeeds, request);
-    const auto curve = pchip_curve(observed_knots(request.values));
-    FillResult result;
-    result.values = fill_inside_span(request.values, curve);
-    apply_edges(result.values, edges_);
-    return result;
-  }
-
-private:
-  std::string edges_;
-};
-
 const Registration<FillMethod> registration{{
     .name = "pchip",
     .summary = "monotone piecewise cubic Hermite through the observed points (no overshoot)",
     .params = {edges_param()},
     .needs = kNeeds,
-    .make = [](const ParamValues& p) { return std::make_unique<Pchip>(p.text("edges")); },
+    .make =
+        [](const ParamValues& p) {
+          return interpolating_method(
+              [](std::span<const double> values) {
+                return fill_inside_span(values, pchip_curve(observed_knots(values)));
+              },
+              p);
+        },
 }};
 
 }  // namespace

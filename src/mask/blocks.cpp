@@ -23,6 +23,7 @@
 #include "gapmark/error.hpp"
 #include "gapmark/mask/scheme.hpp"
 #include "gapmark/number_format.hpp"
+#include "block_placement.hpp"
 
 namespace gapmark {
 namespace {
@@ -35,20 +36,15 @@ public:
   BlocksScheme(double length_mean, std::size_t length) : length_mean_(length_mean), length_(length) {}
 
   Mask draw(const MaskRequest& request, Rng& rng) const override {
-    check_rate(request.rate, request.where);
-    const auto eligible = eligible_positions(request);
-    if (eligible.empty())
-      throw InputError(request.where, "no observed points before the holdout to hide");
-    const std::size_t n = request.values.size();
-    const std::size_t limit = request.holdout >= n ? 0 : n - request.holdout;
-    const std::size_t target = target_count(request, eligible.size());
-
-    Mask mask(n, 0);
+    const auto [eligible, limit, target] = draw_basis(request);
+    Mask mask(request.values.size(), 0);
+    const mask::BlockRoom room{request.values, mask, eligible, limit, /*inside_observed=*/false};
     std::size_t hidden = 0;
     int failures = 0;
     while (hidden < target) {
       const std::size_t len = length_ > 0 ? length_ : static_cast<std::size_t>(rng.geometric(length_mean_));
-      const auto start = place(request.values, mask, eligible, limit, len, rng);
+      const auto start =
+          len > limit ? std::nullopt : mask::place_block(room, len, kRandomTries, rng);
       if (!start) {
         if (length_ > 0 || ++failures >= kMaxLengthFailures) throw unreachable(request, hidden, target);
         continue;
@@ -64,42 +60,6 @@ public:
   }
 
 private:
-  /// True when a block [s, s+len) may go here: starts on an eligible point,
-  /// ends before `limit`, and neither it nor the step either side is hidden.
-  static bool fits(std::span<const double> values, const Mask& mask, std::size_t limit,
-                   std::size_t s, std::size_t len) {
-    if (s + len > limit || std::isnan(values[s])) return false;
-    const std::size_t lo = s > 0 ? s - 1 : 0;
-    const std::size_t hi = s + len < mask.size() ? s + len : mask.size() - 1;
-    for (std::size_t i = lo; i <= hi; ++i)
-      if (mask[i]) return false;
-    return true;
-  }
-
-  /// A start uniform over the valid starts for `len`, or nullopt if none.
-  static std::optional<std::size_t> place(std::span<const double> values, const Mask& mask,
-                                          const std::vector<std::size_t>& eligible, std::size_t limit,
-                                          std::size_t len, Rng& rng) {
-    if (len > limit) return std::nullopt;
-    for (int t = 0; t < kRandomTries; ++t) {
-      const std::size_t s = eligible[rng.below(eligible.size())];
-      if (fits(values, mask, limit, s, len)) return s;
-    }
-    // List every valid start: zero_run[i] = hidden-free steps ending at i.
-    std::vector<std::size_t> valid;
-    std::vector<std::size_t> zero_run(mask.size());
-    for (std::size_t i = 0; i < mask.size(); ++i)
-      zero_run[i] = mask[i] ? 0 : (i > 0 ? zero_run[i - 1] : 0) + 1;
-    for (std::size_t s : eligible) {
-      if (s + len > limit) break;  // eligible is increasing
-      const std::size_t lo = s > 0 ? s - 1 : 0;
-      const std::size_t hi = s + len < mask.size() ? s + len : mask.size() - 1;
-      if (zero_run[hi] >= hi - lo + 1) valid.push_back(s);
-    }
-    if (valid.empty()) return std::nullopt;
-    return valid[rng.below(valid.size())];
-  }
-
   InputError unreachable(const MaskRequest& request, std::size_t hidden, std::size_t target) const {
     const std::string blocks = length_ > 0 ? "blocks of length " + std::to_string(length_)
                                            : "blocks of mean length " + format_double(length_mean_);

@@ -3,7 +3,6 @@
 // number hidden is binomial with mean rate × eligible. If a draw hides
 // nothing at all (possible on short series at low rates), one eligible point
 // chosen uniformly is hidden, so every trial has something to score.
-#include "gapmark/error.hpp"
 #include "gapmark/mask/scheme.hpp"
 
 namespace gapmark {
@@ -12,10 +11,7 @@ namespace {
 class RandomScheme final : public MaskScheme {
 public:
   Mask draw(const MaskRequest& request, Rng& rng) const override {
-    check_rate(request.rate, request.where);
-    const auto eligible = eligible_positions(request);
-    if (eligible.empty())
-      throw InputError(request.where, "no observed points before the holdout to hide");
+    const auto eligible = draw_basis(request).eligible;
     Mask mask(request.values.size(), 0);
     std::size_t hidden = 0;
     for (std::size_t i : eligible) {

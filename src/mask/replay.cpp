@@ -40,6 +40,8 @@
 #include "gapmark/error.hpp"
 #include "gapmark/mask/scheme.hpp"
 #include "gapmark/number_format.hpp"
+#include "block_placement.hpp"
+#include "phase_unit.hpp"
 
 namespace gapmark {
 namespace {
@@ -48,18 +50,17 @@ constexpr int kRandomTries = 64;
 constexpr int kMaxLengthFailures = 200;
 constexpr std::int64_t kDay = 86400;
 
-enum class PhaseUnit { None, Index, Hour, Weekday, Month };
+using mask::PhaseUnit;
 
-PhaseUnit choose_unit(const std::string& name, const MaskRequest& request) {
-  if (name == "none") return PhaseUnit::None;
-  if (name == "index") return PhaseUnit::Index;
-  if (name == "hour") return PhaseUnit::Hour;
-  if (name == "weekday") return PhaseUnit::Weekday;
-  if (name == "month") return PhaseUnit::Month;
+/// The phase unit `name` asks for; nullopt = no phase ("none", or nothing fits the axis).
+std::optional<PhaseUnit> choose_unit(const std::string& name, const MaskRequest& request) {
+  if (name == "none") return std::nullopt;
+  if (name != "auto") return mask::parse_phase_unit(name);
   const TimeAxis* axis = request.axis;
-  if (axis == nullptr || axis->kind() == TimeKind::Index) return request.period > 1 ? PhaseUnit::Index : PhaseUnit::None;
+  if (axis == nullptr || axis->kind() == TimeKind::Index)
+    return request.period > 1 ? std::optional(PhaseUnit::Index) : std::nullopt;
   const Step& step = axis->step();
-  if (step.unit == Step::Unit::Months) return step.amount < 12 ? PhaseUnit::Month : PhaseUnit::None;
+  if (step.unit == Step::Unit::Months) return step.amount < 12 ? std::optional(PhaseUnit::Month) : std::nullopt;
   if (step.amount < kDay) return PhaseUnit::Hour;
   if (step.amount < 7 * kDay) return PhaseUnit::Weekday;
   return PhaseUnit::Month;
@@ -72,25 +73,17 @@ struct Pattern {
   double max_weight = 0;
 };
 
-Pattern learn(const MaskRequest& request, PhaseUnit unit, double prior_starts) {
+Pattern learn(const MaskRequest& request, std::optional<PhaseUnit> unit, double prior_starts) {
   const auto& v = request.values;
   const std::size_t n = v.size();
   const auto missing = [&](std::size_t i) { return std::isnan(v[i]); };
   std::vector<int> phase(n, 0);
-  if (unit != PhaseUnit::None && (unit == PhaseUnit::Index || request.axis != nullptr)) {
-    if (unit != PhaseUnit::Index && request.axis->kind() == TimeKind::Index)
+  if (unit && (*unit == PhaseUnit::Index || request.axis != nullptr)) {
+    if (*unit != PhaseUnit::Index && request.axis->kind() == TimeKind::Index)
       throw InputError(request.where, "replay: phase by calendar needs dated times; use phase=index or phase=none");
-    if (unit == PhaseUnit::Index && request.period < 2)
+    if (*unit == PhaseUnit::Index && request.period < 2)
       throw InputError(request.where, "replay: phase=index needs a seasonal period of at least 2");
-    for (std::size_t i = 0; i < n; ++i) {
-      switch (unit) {
-        case PhaseUnit::Index: phase[i] = int(i % request.period); break;
-        case PhaseUnit::Hour: phase[i] = request.axis->hour_of_day(i); break;
-        case PhaseUnit::Weekday: phase[i] = request.axis->day_of_week(i); break;
-        case PhaseUnit::Month: phase[i] = request.axis->month(i); break;
-        case PhaseUnit::None: break;
-      }
-    }
+    for (std::size_t i = 0; i < n; ++i) phase[i] = mask::phase_of(*unit, request.axis, request.period, i);
   }
   Pattern p;
   std::map<int, std::pair<double, double>> by_phase;  // phase -> (starts, opportunities)
@@ -126,21 +119,18 @@ public:
       : phase_(std::move(phase)), prior_starts_(prior_starts), from_(std::move(from)) {}
 
   Mask draw(const MaskRequest& request, Rng& rng) const override {
-    check_rate(request.rate, request.where);
-    const auto eligible = eligible_positions(request);
-    if (eligible.empty()) throw InputError(request.where, "no observed points before the holdout to hide");
+    const auto [eligible, limit, target] = draw_basis(request);
     const MaskRequest source = learning_source(request);
     const Pattern pattern = learn(source, choose_unit(phase_, source), prior_starts_);
-    const std::size_t n = request.values.size();
-    const std::size_t limit = request.holdout >= n ? 0 : n - request.holdout;
-    const std::size_t target = target_count(request, eligible.size());
-
-    Mask mask(n, 0);
+    Mask mask(request.values.size(), 0);
+    const mask::BlockRoom room{request.values, mask, eligible, limit, /*inside_observed=*/true};
     std::size_t hidden = 0;
     int failures = 0;
     while (hidden < target) {
       const std::size_t len = draw_length(pattern.lengths, target - hidden, rng);
-      const auto start = place(request.values, mask, eligible, pattern, limit, len, rng);
+      const auto start = pattern.max_weight <= 0
+                             ? std::nullopt
+                             : mask::place_block(room, len, kRandomTries, rng, &pattern.weight, pattern.max_weight);
       if (!start) {
         if (++failures >= kMaxLengthFailures) throw unreachable(request, hidden, target);
         continue;
@@ -178,46 +168,6 @@ private:
   /// A learned length, cut to the room left: only the last block of a mask is ever cut.
   static std::size_t draw_length(const std::vector<std::size_t>& lengths, std::size_t room, Rng& rng) {
     return std::min(lengths[rng.below(lengths.size())], room);
-  }
-
-  /// A block [s, s+len): all observed and before `limit`, with an observed,
-  /// unhidden point on each side.
-  static bool fits(std::span<const double> values, const Mask& mask, std::size_t limit, std::size_t s, std::size_t len) {
-    if (s == 0 || s + len >= values.size() || s + len > limit) return false;
-    for (std::size_t i = s - 1; i <= s + len; ++i)
-      if (std::isnan(values[i]) || mask[i]) return false;
-    return true;
-  }
-
-  static std::optional<std::size_t> place(std::span<const double> values, const Mask& mask,
-                                          const std::vector<std::size_t>& eligible, const Pattern& pattern,
-                                          std::size_t limit, std::size_t len, Rng& rng) {
-    if (pattern.max_weight <= 0) return std::nullopt;
-    for (int t = 0; t < kRandomTries; ++t) {
-      const std::size_t s = eligible[rng.below(eligible.size())];
-      if (rng.uniform() * pattern.max_weight >= pattern.weight[s]) continue;
-      if (fits(values, mask, limit, s, len)) return s;
-    }
-    // Every valid start, drawn by weight. clear[i]: consecutive observed,
-    // unhidden points ending at i.
-    std::vector<std::size_t> clear(values.size());
-    for (std::size_t i = 0; i < values.size(); ++i)
-      clear[i] = (std::isnan(values[i]) || mask[i]) ? 0 : (i > 0 ? clear[i - 1] : 0) + 1;
-    std::vector<std::size_t> valid;
-    std::vector<double> cumulative;
-    double total = 0;
-    for (std::size_t s : eligible) {
-      if (s == 0) continue;
-      if (s + len >= values.size() || s + len > limit) break;
-      if (clear[s + len] < len + 2 || pattern.weight[s] <= 0) continue;
-      total += pattern.weight[s];
-      valid.push_back(s);
-      cumulative.push_back(total);
-    }
-    if (valid.empty()) return std::nullopt;
-    const double u = rng.uniform() * total;
-    const auto k = static_cast<std::size_t>(std::upper_bound(cumulative.begin(), cumulative.end(), u) - cumulative.begin());
-    return valid[std::min(k, valid.size() - 1)];
   }
 
   static InputError unreachable(const MaskRequest& request, std::size_t hidden, std::size_t target) {

@@ -1,6 +1,8 @@
 #include "gapmark/mask/scheme.hpp"
 
+#include <algorithm>
 #include <cmath>
+#include <limits>
 
 #include "gapmark/error.hpp"
 #include "gapmark/number_format.hpp"
@@ -26,6 +28,17 @@ std::size_t target_count(const MaskRequest& request, std::size_t eligible) {
 void check_rate(double rate, const std::string& where) {
   if (!(rate > 0.0 && rate < 1.0))
     throw InputError(where, "rate " + format_double(rate) + " is outside (0, 1)");
+}
+
+DrawBasis draw_basis(const MaskRequest& request) {
+  check_rate(request.rate, request.where);
+  DrawBasis basis;
+  basis.eligible = eligible_positions(request);
+  if (basis.eligible.empty()) throw InputError(request.where, "no observed points before the holdout to hide");
+  const std::size_t n = request.values.size();
+  basis.limit = request.holdout >= n ? 0 : n - request.holdout;
+  basis.target = target_count(request, basis.eligible.size());
+  return basis;
 }
 
 std::vector<double> apply_mask(std::span<const double> values, const Mask& mask) {

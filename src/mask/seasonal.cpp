@@ -21,32 +21,16 @@
 #include "gapmark/error.hpp"
 #include "gapmark/mask/scheme.hpp"
 #include "gapmark/number_format.hpp"
+#include "phase_unit.hpp"
 
 namespace gapmark {
 namespace {
 
-enum class PhaseUnit { Index, Hour, Weekday, Month };
+using mask::PhaseUnit;
 
 struct PhaseRange {
   long first = 0, last = 0;  // inclusive; first > last wraps around
 };
-
-PhaseUnit parse_unit(const std::string& text) {
-  if (text == "hour") return PhaseUnit::Hour;
-  if (text == "weekday") return PhaseUnit::Weekday;
-  if (text == "month") return PhaseUnit::Month;
-  return PhaseUnit::Index;
-}
-
-const char* unit_name(PhaseUnit unit) {
-  switch (unit) {
-    case PhaseUnit::Hour: return "hour";
-    case PhaseUnit::Weekday: return "weekday";
-    case PhaseUnit::Month: return "month";
-    case PhaseUnit::Index: break;
-  }
-  return "index";
-}
 
 long parse_phase_number(std::string_view text, const std::string& all) {
   text = trim(text);
@@ -93,23 +77,17 @@ public:
   }
 
   Mask draw(const MaskRequest& request, Rng& rng) const override {
-    check_rate(request.rate, request.where);
-    const auto eligible = eligible_positions(request);
-    if (eligible.empty())
-      throw InputError(request.where, "no observed points before the holdout to hide");
-    const std::size_t n = request.values.size();
-    const std::size_t limit = request.holdout >= n ? 0 : n - request.holdout;
+    const auto [eligible, limit, target] = draw_basis(request);
     const std::vector<bool> on = on_phase(request, limit);
 
     std::vector<std::size_t> on_pts, off_pts;
     for (std::size_t i : eligible) (on[i] ? on_pts : off_pts).push_back(i);
-    const std::size_t target = target_count(request, eligible.size());
     const auto k_on = static_cast<std::size_t>(std::llround(concentration_ * static_cast<double>(target)));
     const std::size_t k_off = target - k_on;
     if (k_on > on_pts.size())
       throw InputError(request.where,
                        "rate " + format_double(request.rate) + " cannot be reached on phases " + phases_text_ +
-                           " (" + unit_name(unit_) + "): they hold " + std::to_string(on_pts.size()) + " of " +
+                           " (" + mask::phase_unit_name(unit_) + "): they hold " + std::to_string(on_pts.size()) + " of " +
                            std::to_string(eligible.size()) + " eligible points (" +
                            percent(on_pts.size(), eligible.size()) + ") and concentration " +
                            format_double(concentration_) + " puts " + std::to_string(k_on) +
@@ -118,11 +96,11 @@ public:
       throw InputError(request.where,
                        "rate " + format_double(request.rate) + " with concentration " +
                            format_double(concentration_) + " puts " + std::to_string(k_off) +
-                           " points off phases " + phases_text_ + " (" + unit_name(unit_) + ") but only " +
+                           " points off phases " + phases_text_ + " (" + mask::phase_unit_name(unit_) + ") but only " +
                            std::to_string(off_pts.size()) +
                            " eligible points lie there; raise the concentration or lower the rate");
 
-    Mask mask(n, 0);
+    Mask mask(request.values.size(), 0);
     std::size_t hidden = 0;
     if (contiguous_) hidden += hide_windows(request, on, limit, k_on, mask, rng);
     else hidden += hide_each(on_pts, k_on, mask, rng);
@@ -156,7 +134,7 @@ private:
         if (p < lo || p > hi)
           throw InputError(where, "phase " + std::to_string(p) + " in phases=" + phases_text_ + " is outside " +
                                       std::to_string(lo) + ".." + std::to_string(hi) + " for unit=" +
-                                      unit_name(unit_) +
+                                      mask::phase_unit_name(unit_) +
                                       (unit_ == PhaseUnit::Index ? " (period " + std::to_string(size) + ")" : ""));
       for (long p = r.first;; p = p == hi ? lo : p + 1) {  // walks forward, wrapping at the cycle's end
         chosen[static_cast<std::size_t>(p - lo)] = true;
@@ -178,19 +156,11 @@ private:
       return on;
     }
     if (request.axis == nullptr || request.axis->kind() == TimeKind::Index)
-      throw InputError(request.where, std::string("unit=") + unit_name(unit_) +
+      throw InputError(request.where, std::string("unit=") + mask::phase_unit_name(unit_) +
                                           " needs dates on the time axis; use unit=index with a period");
     const auto chosen = chosen_phases(request.where, cycle_first(), cycle_size());
-    for (std::size_t i = 0; i < limit; ++i) {
-      int p = 0;
-      switch (unit_) {
-        case PhaseUnit::Hour: p = request.axis->hour_of_day(i); break;
-        case PhaseUnit::Weekday: p = request.axis->day_of_week(i); break;
-        case PhaseUnit::Month: p = request.axis->month(i); break;
-        case PhaseUnit::Index: break;
-      }
-      on[i] = chosen[static_cast<std::size_t>(p - cycle_first())];
-    }
+    for (std::size_t i = 0; i < limit; ++i)
+      on[i] = chosen[static_cast<std::size_t>(mask::phase_of(unit_, request.axis, 0, i) - cycle_first())];
     return on;
   }
 
@@ -280,7 +250,7 @@ const Registration<MaskScheme> registration{{
                 .help = "hide whole phase windows (e.g. a whole night) instead of single points"}},
     .make =
         [](const ParamValues& p) {
-          const PhaseUnit unit = parse_unit(p.text("unit"));
+          const PhaseUnit unit = mask::parse_phase_unit(p.text("unit")).value_or(PhaseUnit::Index);
           if (unit != PhaseUnit::Index && p.given("period") && p.integer("period") != 0)
             throw InputError("seasonal: period", "applies to unit=index only");
           return std::make_unique<SeasonalScheme>(p.text("phases"), unit,

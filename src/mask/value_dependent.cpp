@@ -19,7 +19,6 @@
 #include <cmath>
 #include <numeric>
 
-#include "gapmark/error.hpp"
 #include "gapmark/mask/scheme.hpp"
 
 namespace gapmark {
@@ -48,10 +47,7 @@ public:
   ValueDependentScheme(bool high, double strength) : high_(high), strength_(strength) {}
 
   Mask draw(const MaskRequest& request, Rng& rng) const override {
-    check_rate(request.rate, request.where);
-    const auto eligible = eligible_positions(request);
-    if (eligible.empty())
-      throw InputError(request.where, "no observed points before the holdout to hide");
+    const auto [eligible, limit, target] = draw_basis(request);
     const std::size_t m = eligible.size();
     std::vector<double> values(m);
     for (std::size_t j = 0; j < m; ++j) values[j] = request.values[eligible[j]];
@@ -63,7 +59,6 @@ public:
       const double e = -std::log1p(-rng.uniform());  // Exp(1); uniform() < 1 keeps it finite
       keys[j] = {e / w, eligible[j]};
     }
-    const std::size_t target = target_count(request, m);
     std::nth_element(keys.begin(), keys.begin() + static_cast<std::ptrdiff_t>(target - 1), keys.end());
     Mask mask(request.values.size(), 0);
     for (std::size_t j = 0; j < target; ++j) mask[keys[j].second] = 1;

@@ -8,13 +8,6 @@
 
 namespace gapmark {
 
-std::string short_number(double value) {
-  if (std::isnan(value)) return "n/a";
-  char buffer[32];
-  std::snprintf(buffer, sizeof buffer, "%.4g", value);
-  return buffer;
-}
-
 int supported_decimals(double low, double high) {
   const double width = high - low;
   const double scale = std::max(std::abs(low), std::abs(high));

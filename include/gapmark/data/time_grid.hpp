@@ -65,10 +65,6 @@ std::int64_t grid_phase_key(TimeKind kind, const Step& step, std::int64_t t);
 std::optional<Step> infer_step(TimeKind kind, std::span<const std::int64_t> sorted_runs,
                                std::span<const std::size_t> run_ends);
 
-/// The day of month a monthly grid keeps for these times (31 = month-ends),
-/// or 0 when they do not keep one.
-int month_anchor_day(std::span<const std::int64_t> times);
-
 /// The most points a regular grid may have per series (50 million: 95 years
 /// at one minute, about 400 MB per value column in memory). A span and step
 /// that would need more are refused before anything is allocated.

@@ -51,7 +51,9 @@ class FillMethod {
 public:
   static constexpr const char* family = "method";
   virtual ~FillMethod() = default;
-  /// Fills the gaps. Throws MethodFailure with a reason when it cannot.
+  /// Fills the gaps. Throws MethodFailure with a reason when it cannot. The
+  /// caller has checked the registration's needs (check_needs) first, so a
+  /// method may rely on them.
   virtual FillResult fill(const FillRequest& request) const = 0;
 
   /// The parameters every method takes (method_common_params.cpp): `period`

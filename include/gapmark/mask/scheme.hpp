@@ -42,6 +42,16 @@ public:
 
 using SchemeRegistry = Registry<MaskScheme>;
 
+/// What every draw starts from, computed once by draw_basis.
+struct DrawBasis {
+  std::vector<std::size_t> eligible;  ///< observed and before the holdout; never empty
+  std::size_t limit = 0;              ///< the first holdout index (the series' length without holdout)
+  std::size_t target = 0;             ///< target_count for the eligible points
+};
+/// Checks the rate and finds the eligible points; InputError naming the
+/// request's `where` when the rate is outside (0, 1) or no point is eligible.
+DrawBasis draw_basis(const MaskRequest& request);
+
 /// Positions that may be masked: observed and before the holdout.
 std::vector<std::size_t> eligible_positions(const MaskRequest& request);
 /// Number of points to hide for a request: round(rate * eligible), at least 1.

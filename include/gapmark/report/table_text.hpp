@@ -5,11 +5,10 @@
 #include <vector>
 
 #include "gapmark/analysis/summary.hpp"
+#include "gapmark/number_format.hpp"  // short_number
 
 namespace gapmark {
 
-/// Four significant digits for tables ("0.1235", "1.235e+05"); "n/a" for NaN.
-std::string short_number(double value);
 /// Decimal places that show an interval [low, high] with two significant
 /// digits of its width: the precision the replicates support. -1 when the
 /// width is zero, not finite, or below 1e-9 of the values (numerical noise);
