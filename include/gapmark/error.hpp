@@ -18,11 +18,21 @@ private:
   std::string where_;
 };
 
+/// Which of a method's needs the data did not meet, when that is why it failed.
+/// The message says what is missing; each caller adds the hint that fits its
+/// context (a spec's "period", the command line's --period).
+enum class UnmetNeed { None, Period, Length, Siblings, Observed };
+
 /// A fill method could not fill a series (a need unmet, a numerical failure).
 /// The experiment records the cell as failed with this reason and goes on.
 class MethodFailure : public std::runtime_error {
 public:
-  using std::runtime_error::runtime_error;
+  explicit MethodFailure(const std::string& what, UnmetNeed need = UnmetNeed::None)
+      : std::runtime_error(what), need_(need) {}
+  UnmetNeed need() const noexcept { return need_; }
+
+private:
+  UnmetNeed need_;
 };
 
 }  // namespace gapmark

@@ -35,6 +35,9 @@ struct WideTable {
   std::vector<std::string> columns;          ///< variable names
   std::vector<std::vector<double>> values;   ///< values[c][row], NaN = missing
   std::vector<std::vector<std::string>> cells;  ///< cells[c][row] as written
+  /// Rows added for grid times the file had no row for (a given step); their
+  /// values are missing and their time cells written from the axis.
+  std::size_t added_rows = 0;
 
   /// Index of a column by name; InputError naming the file when absent.
   std::size_t column_index(const std::string& name) const;
@@ -42,12 +45,14 @@ struct WideTable {
 
 struct WideReadOptions {
   std::string time_column;        ///< empty: the first column
-  std::optional<Step> step;       ///< empty: inferred
+  std::optional<Step> step;       ///< empty: inferred, and every step must have its row
 };
 
 /// Reads a wide CSV: the time column (ISO 8601 dates or date-times, or
-/// integers) must be regular; every other cell is a number or a missing
-/// token (empty, NA, NaN). Errors name the file, line and column.
+/// integers) must be regular, or, with a given step, on that step's grid
+/// (times without a row become rows of missing values); every other cell is
+/// a number or a missing token (empty, NA, NaN). Errors name the file, line
+/// and column.
 WideTable read_wide_csv(const std::filesystem::path& path, const WideReadOptions& options = {});
 WideTable parse_wide_csv(const CsvTable& csv, const WideReadOptions& options = {});
 

@@ -8,6 +8,7 @@
 #include <span>
 #include <string>
 #include <string_view>
+#include <vector>
 
 namespace gapmark {
 
@@ -112,8 +113,12 @@ std::string format_time(TimeKind kind, std::int64_t value, std::optional<int> of
 TimeAxis infer_axis(std::span<const TimePoint> times, std::optional<Step> step,
                     std::string_view file, std::size_t first_line);
 /// The same with the file line of every time (rows of a CSV file may span
-/// several lines when a quoted cell holds a line break).
+/// several lines when a quoted cell holds a line break). With `positions`
+/// and a given step, times may skip grid points: the axis then runs from the
+/// first to the last time on the step's grid, every time must lie on that
+/// grid (InputError otherwise), and positions[i] is the grid index of times[i].
 TimeAxis infer_axis(std::span<const TimePoint> times, std::optional<Step> step,
-                    std::string_view file, std::span<const std::size_t> lines);
+                    std::string_view file, std::span<const std::size_t> lines,
+                    std::vector<std::size_t>* positions = nullptr);
 
 }  // namespace gapmark

@@ -17,12 +17,13 @@ namespace gapmark::cli {
 
 namespace {
 
-/// The --fit file: per selected column, its gaps, what was filled, and the
+/// The --fit file: per selected column, its missing points and the gaps they form, what was filled, and the
 /// method's fit (null for a method without a model, or when it failed).
 nlohmann::json fits_json(const std::string& method, const std::vector<FillTableReport>& reports) {
   nlohmann::json columns = nlohmann::json::array();
   for (const auto& r : reports)
     columns.push_back({{"column", r.column},
+                       {"missing", r.missing},
                        {"gaps", r.gaps},
                        {"filled", r.filled},
                        {"fit", r.fit.empty() ? nlohmann::json(nullptr) : fit_to_json(r.fit)},
@@ -69,6 +70,8 @@ void add_fill(CLI::App& app, Action& action) {
     std::size_t draws = 0;
     std::uint64_t seed = 1;
     bool force = false;
+    bool allow_unfilled = false;
+    bool variance = false;
   };
   auto o = std::make_shared<Options>();
   auto* cmd = app.add_subcommand("fill", "Fill the gaps of a CSV with one method; adds a COLUMN_filled flag column per column");
@@ -86,6 +89,12 @@ void add_fill(CLI::App& app, Action& action) {
       ->check(whole_number(1, kMaxDraws));
   cmd->add_option("--seed", o->seed, "Seed of the draws (with the column's name); default 1");
   add_force_flag(*cmd, o->force);
+  cmd->add_flag("--allow-unfilled", o->allow_unfilled,
+                "Write the file even when the method leaves points unfilled (they stay empty); without it that is an "
+                "error (exit 2) and nothing is written");
+  cmd->add_flag("--variance", o->variance,
+                "Add a COLUMN_variance column: the method's predictive variance at each filled point (empty at "
+                "observed points, and everywhere for methods that give none)");
   cmd->callback([&action, o] {
     action = [o] {
       check_output_file(o->out, o->force);
@@ -100,10 +109,21 @@ void add_fill(CLI::App& app, Action& action) {
                                                   "--method");
       WideTable table = o->table.read();
       auto columns = select_columns(table, o->table.columns);
-      auto result = fill_table(table, columns, method, o->table.period, !o->fit.empty(), o->seed);
+      const FillTableOutput result = fill_table(table, columns, method, o->table.period, !o->fit.empty(), o->seed);
+      std::size_t unfilled = 0;
+      std::string first_problem;
+      for (const auto& r : result.reports) {
+        if (r.unfilled() == 0) continue;
+        unfilled += r.unfilled();
+        if (first_problem.empty()) first_problem = unfilled_message(r, method);
+      }
+      if (unfilled > 0 && !o->allow_unfilled)
+        throw InputError(o->table.input, first_problem + " (--allow-unfilled writes the file anyway)");
       std::vector<ExtraColumn> extra;
-      for (std::size_t k = 0; k < columns.size(); ++k)
+      for (std::size_t k = 0; k < columns.size(); ++k) {
         extra.emplace_back(table.columns[columns[k]] + "_filled", result.flags[k]);
+        if (o->variance) extra.emplace_back(table.columns[columns[k]] + "_variance", result.variance[k]);
+      }
       for (std::size_t k = 0; k < columns.size() && o->draws > 0; ++k)
         for (std::size_t d = 0; d < o->draws; ++d) {
           const auto& draws = result.reports[k].draws;
@@ -116,16 +136,20 @@ void add_fill(CLI::App& app, Action& action) {
       const std::string csv = write_wide_csv(table, extra);
       if (!o->fit.empty()) write_file_atomically(o->fit, fits_json(method.label, result.reports).dump(2) + "\n");
       write_file_atomically(o->out, csv);
-      bool complete = true;
+      if (table.added_rows > 0)
+        std::cerr << "added " << table.added_rows << " rows for the " << table.axis.step().iso()
+                  << " steps the file had no row for (their values were missing)\n";
       for (const auto& r : result.reports) {
-        std::cerr << r.column << ": filled " << r.filled << " of " << r.gaps << " gaps";
+        std::cerr << r.column << ": filled " << r.filled << " of " << points_in_gaps(r.missing, r.gaps);
         if (r.clipped) std::cerr << " (" << r.clipped << " moved into the bounds)";
-        if (!r.failure.empty()) std::cerr << " (" << method.label << " failed: " << r.failure << ")";
+        if (o->variance && r.filled > 0 && !r.variance) std::cerr << " (" << method.label << " gives no variance)";
         std::cerr << "\n";
         if (!o->fit.empty() && !r.fit.empty()) std::cerr << "  fit: " << fit_line(r.fit) << "\n";
-        complete = complete && r.filled == r.gaps;
+        if (r.unfilled() > 0) std::cerr << "warning: " << unfilled_message(r, method) << "\n";
       }
-      if (!complete) std::cerr << "warning: some gaps remain empty; try another method or edges=nearest\n";
+      if (unfilled > 0)
+        std::cerr << "wrote " << o->out << " with " << unfilled << (unfilled == 1 ? " point" : " points")
+                  << " left unfilled (--allow-unfilled)\n";
       return kOk;
     };
   });

@@ -297,7 +297,31 @@ WideTable parse_wide_csv(const CsvTable& csv, const WideReadOptions& options) {
     table.cells.push_back(std::move(cells));
   }
 
-  table.axis = infer_axis(times, options.step, csv.source, csv.lines);
+  if (!options.step) {
+    table.axis = infer_axis(times, options.step, csv.source, csv.lines);
+    return table;
+  }
+  // A given step places the rows on its grid: times it has no row for become
+  // rows of missing values.
+  std::vector<std::size_t> position;
+  table.axis = infer_axis(times, options.step, csv.source, csv.lines, &position);
+  const std::size_t points = table.axis.size();
+  if (points == n) return table;
+  std::vector<std::string> time_text(points);
+  for (std::size_t k = 0; k < points; ++k) time_text[k] = table.axis.format(k);
+  for (std::size_t r = 0; r < n; ++r) time_text[position[r]] = table.time_text[r];
+  table.time_text = std::move(time_text);
+  for (std::size_t c = 0; c < table.columns.size(); ++c) {
+    std::vector<double> values(points, std::nan(""));
+    std::vector<std::string> cells(points);
+    for (std::size_t r = 0; r < n; ++r) {
+      values[position[r]] = table.values[c][r];
+      cells[position[r]] = std::move(table.cells[c][r]);
+    }
+    table.values[c] = std::move(values);
+    table.cells[c] = std::move(cells);
+  }
+  table.added_rows = points - n;
   return table;
 }
 

@@ -424,8 +424,46 @@ TimeAxis infer_axis(std::span<const TimePoint> times, std::optional<Step> step,
   return infer_axis(times, step, file, lines);
 }
 
+namespace {
+
+constexpr std::size_t kMaxGridPoints = 100'000'000;
+
+/// The axis from the first to the last time on the grid of `step`, and the
+/// position of each time on it; InputError for a time off the grid.
+template <class Where>
+TimeAxis place_on_grid(std::span<const TimePoint> times, const Step& step, const AxisStyle& style, const Where& where,
+                       const std::string& step_where, std::vector<std::size_t>& positions) {
+  const TimePoint& first = times.front();
+  const auto steps_to = [&](std::int64_t value) {
+    const std::int64_t span = step.unit == Step::Unit::Months
+                                  ? month_number(to_civil(value)) - month_number(to_civil(first.value))
+                                  : value - first.value;
+    return span / step.amount;
+  };
+  const std::int64_t last = steps_to(times.back().value);
+  if (last < 0 || static_cast<std::uint64_t>(last) >= kMaxGridPoints)
+    throw InputError(step_where, "step " + step.iso() + " puts " + std::to_string(last + 1) +
+                                     " points between the first and the last time; check --step");
+  const TimeAxis axis(first.kind, step, first.value, static_cast<std::size_t>(last) + 1, first.offset_minutes, style);
+  positions.assign(times.size(), 0);
+  for (std::size_t i = 0; i < times.size(); ++i) {
+    const auto k = static_cast<std::size_t>(steps_to(times[i].value));
+    if (axis.at(k) != times[i].value) {
+      const auto text = [&](std::int64_t v) { return format_time(first.kind, v, first.offset_minutes, first.utc_z); };
+      throw InputError(where(i), "time " + text(times[i].value) + " is not on the " + step.iso() + " grid from " +
+                                     text(first.value) + " (nearest grid time " + text(axis.at(k)) +
+                                     "); regularize the data first, or check --step");
+    }
+    positions[i] = k;
+  }
+  return axis;
+}
+
+}  // namespace
+
 TimeAxis infer_axis(std::span<const TimePoint> times, std::optional<Step> step,
-                    std::string_view file, std::span<const std::size_t> lines) {
+                    std::string_view file, std::span<const std::size_t> lines,
+                    std::vector<std::size_t>* positions) {
   if (lines.size() != times.size())
     throw std::invalid_argument("infer_axis: one line number per time");
   if (times.empty()) return TimeAxis(TimeKind::Index, Step{}, 0, 0);
@@ -497,6 +535,7 @@ TimeAxis infer_axis(std::span<const TimePoint> times, std::optional<Step> step,
     chosen = Step{kind == TimeKind::Index ? Step::Unit::Index : Step::Unit::Seconds, smallest};
   }
 
+  if (positions != nullptr && step) return place_on_grid(times, chosen, style, where, step_where, *positions);
   const TimeAxis axis(kind, chosen, first.value, times.size(), first.offset_minutes, style);
   for (std::size_t i = 1; i < times.size(); ++i) {
     const std::int64_t expected = axis.at(i);

@@ -6,13 +6,12 @@
 
 #include "gapmark/json_number.hpp"
 #include "gapmark/error.hpp"
+#include "gapmark/fill/checked_fill.hpp"
 #include "gapmark/parallel_for.hpp"
-#include "gapmark/rng.hpp"
 #include "gapmark/stats/acf.hpp"
 
 namespace gapmark {
 namespace {
-
 
 /// The largest lag: the spec's "acf" metric setting when it gives one, else
 /// twice the period, or 24 without a period; at most n - 1.
@@ -43,21 +42,6 @@ std::size_t best_window(const Mask& mask, std::size_t width) {
   return start;
 }
 
-/// The runner's fill request for a series: the masked values, the axis, the
-/// period and the other series of the same data source as siblings.
-FillRequest fill_request_for(const LoadedData& data, std::size_t index, const std::vector<double>& holed) {
-  FillRequest request;
-  request.values = holed;
-  request.axis = &data.series[index].axis;
-  request.period = data.series[index].period;
-  for (std::size_t s = 0; s < data.series.size(); ++s) {
-    if (s == index || data.dataset[s] != data.dataset[index]) continue;
-    request.siblings.emplace_back(data.series[s].values);
-    request.sibling_names.push_back(data.series[s].label());
-  }
-  return request;
-}
-
 /// ACF r_1..r_L of `values` with the complete series' own gaps left out.
 nlohmann::json acf_json(std::span<const double> truth, std::span<const double> values, std::size_t lags) {
   std::vector<double> x(values.begin(), values.end());
@@ -86,19 +70,17 @@ nlohmann::json example_for(const ExperimentSpec& spec, const LoadedData& data, c
     return ex;
   }
 
-  // The same mask as the run: same request, same seed from the same key.
-  const MaskRequest request = mask_request_for(spec, data, task);
-  Rng rng(task_seed(spec.seed, task_key(spec, data, task)));
+  // The same mask and fill request as the run's first replicate of this cell.
+  const Siblings siblings = task_uses_siblings(spec, task) ? siblings_of(data, index) : Siblings{};
   Mask mask;
   try {
-    mask = plan.scheme.impl->draw(request, rng);
+    mask = draw_task_mask(spec, data, task, siblings);
   } catch (const std::exception& e) {
     ex["note"] = std::string("the scheme could not mask this series: ") + e.what();
     return ex;
   }
   const std::vector<double> holed = apply_mask(series.values, mask);
-  FillRequest fill_request = fill_request_for(data, index, holed);
-  fill_request.working_dir = spec.base_dir.string();  // as in the run
+  const FillRequest fill_request = fill_request_for(spec, series, holed, siblings);
 
   const std::size_t n = series.values.size();
   const std::size_t width = std::min(options.window, n);
@@ -134,27 +116,16 @@ nlohmann::json example_for(const ExperimentSpec& spec, const LoadedData& data, c
       methods.push_back(entry);
       continue;
     }
-    std::vector<double> filled;
-    try {
-      check_needs(method->entry->needs, fill_request);
-      filled = method->impl->fill(fill_request).values;
-      if (filled.size() != n) throw MethodFailure("returned the wrong number of values");
-    } catch (const std::exception& e) {
+    const CheckedFill fill = checked_fill(*method, fill_request, mask);
+    if (fill.failed()) {
       entry["status"] = trial_status_name(TrialStatus::Failed);
-      entry["reason"] = e.what();
+      entry["reason"] = run_failure_reason(fill.failure, fill.need);
       entry["filled"] = nullptr;
       methods.push_back(entry);
       continue;
     }
-    // As the runner does: observed values are kept, non-finite fills are empty.
-    bool complete = true;
-    for (std::size_t i = 0; i < n; ++i) {
-      if (!std::isnan(holed[i])) filled[i] = holed[i];
-      if (mask[i] && !std::isfinite(filled[i])) {
-        filled[i] = std::nan("");
-        complete = false;
-      }
-    }
+    const std::vector<double>& filled = fill.values;
+    const bool complete = fill.unfilled == 0;
     nlohmann::json values = nlohmann::json::array();
     for (std::size_t i = start; i < start + width; ++i) values.push_back(mask[i] ? json_number(filled[i]) : nullptr);
     entry["status"] = trial_status_name(complete ? TrialStatus::Ok : TrialStatus::Partial);

@@ -2,7 +2,6 @@
 
 #include "gapmark/experiment/examples.hpp"
 
-#include <atomic>
 #include <algorithm>
 #include <chrono>
 #include <cmath>
@@ -11,10 +10,11 @@
 #include <optional>
 #include <unordered_set>
 #include <mutex>
-#include <thread>
 
 #include "gapmark/error.hpp"
+#include "gapmark/fill/checked_fill.hpp"
 #include "gapmark/interrupted.hpp"
+#include "gapmark/parallel_for.hpp"
 #include "gapmark/experiment/checkpoint.hpp"
 #include "gapmark/experiment/merge.hpp"
 #include "gapmark/hash.hpp"
@@ -59,12 +59,6 @@ TrialRecord blank_record(const ExperimentSpec& spec, const LoadedData& data, con
   return t;
 }
 
-bool needs_siblings(const ExperimentSpec& spec) {
-  for (const auto& m : spec.methods)
-    if (m.entry && m.entry->needs.siblings) return true;
-  return false;
-}
-
 /// A metric must give a finite value or NaN ("not applicable"). An infinite
 /// value (say, squared errors of values near 1e300 overflowing) is recorded
 /// as NaN with a warning that says why.
@@ -84,19 +78,112 @@ void check_finite_metrics(const ExperimentSpec& spec, TrialRecord& rec, std::vec
 
 }  // namespace
 
-MaskRequest mask_request_for(const ExperimentSpec& spec, const LoadedData& data, const Task& task) {
+Siblings siblings_of(const LoadedData& data, std::size_t series) {
+  Siblings out;
+  for (std::size_t s = 0; s < data.series.size(); ++s) {
+    if (s == series || data.dataset[s] != data.dataset[series]) continue;
+    out.names.push_back(data.series[s].label());
+    out.values.emplace_back(data.series[s].values);
+  }
+  return out;
+}
+
+bool task_uses_siblings(const ExperimentSpec& spec, const Task& task) {
+  if (spec.schemes[task.scheme].scheme.impl->uses_siblings()) return true;
+  for (const auto& m : spec.methods)
+    if (m.entry && m.entry->needs.siblings) return true;
+  return false;
+}
+
+MaskRequest mask_request_for(const ExperimentSpec& spec, const LoadedData& data, const Task& task,
+                             const Siblings& siblings) {
   const Series& series = data.series[task.series];
   const auto& plan = spec.schemes[task.scheme];
   MaskRequest request{series.values, &series.axis, series.period, spec.holdout, plan.rates[task.rate],
                       spec.source + ": " + plan.scheme.label + ", series '" + series.label() + "'"};
   request.name = series.label();
-  for (std::size_t s = 0; s < data.series.size(); ++s) {
-    if (s == task.series || data.dataset[s] != data.dataset[task.series]) continue;
-    request.sibling_names.push_back(data.series[s].label());
-    request.siblings.emplace_back(data.series[s].values);
-  }
+  request.sibling_names = siblings.names;
+  request.siblings = siblings.values;
   return request;
 }
+
+Mask draw_task_mask(const ExperimentSpec& spec, const LoadedData& data, const Task& task, const Siblings& siblings) {
+  Rng rng(task_seed(spec.seed, task_key(spec, data, task)));
+  return spec.schemes[task.scheme].scheme.impl->draw(mask_request_for(spec, data, task, siblings), rng);
+}
+
+FillRequest fill_request_for(const ExperimentSpec& spec, const Series& series, std::span<const double> holed,
+                             const Siblings& siblings) {
+  FillRequest request;
+  request.values = holed;
+  request.axis = &series.axis;
+  request.period = series.period;
+  request.siblings = siblings.values;
+  request.sibling_names = siblings.names;
+  request.working_dir = spec.base_dir.string();  // relative to ours: an outside program starts here
+  return request;
+}
+
+std::string run_failure_reason(const std::string& failure, UnmetNeed need) {
+  switch (need) {
+    case UnmetNeed::Period: return failure + "; set \"period\" for the data in the spec";
+    case UnmetNeed::Siblings: return failure + "; list several columns of one data set";
+    case UnmetNeed::Length:
+    case UnmetNeed::Observed:
+    case UnmetNeed::None: break;
+  }
+  return failure;
+}
+
+namespace {
+
+/// Gives every record of a task one status and reason.
+void fail_all(std::vector<TrialRecord>& records, TrialStatus status, const std::string& reason) {
+  for (auto& r : records) {
+    r.status = status;
+    r.reason = reason;
+  }
+}
+
+/// Fills in a record from one method's fill of the task's mask, and scores it.
+void score_trial(const ExperimentSpec& spec, const Series& series, const Mask& mask, std::size_t masked,
+                 CheckedFill&& fill, TrialRecord& rec, std::vector<Warning>& warnings) {
+  rec.masked = masked;
+  rec.unfilled = fill.unfilled;
+  if (fill.failed()) {
+    rec.status = TrialStatus::Failed;
+    rec.reason = run_failure_reason(fill.failure, fill.need);
+    return;
+  }
+  rec.seconds = fill.seconds;
+  if (fill.observed_changed)
+    add_warning(warnings, {"observed-changed", rec.method,
+                           "the method changed observed values; they were restored before scoring",
+                           "fix the method so that it returns observed values unchanged"});
+  rec.clipped = fill.clipped;
+  if (fill.clipped)
+    add_warning(warnings, {"fills-clipped", rec.method,
+                           "fills outside the method's bounds were moved to the bound (each trial's \"clipped\" counts them)",
+                           "many clipped points mean the method leaves the physical range: try transform=log or another method"});
+  rec.fit = std::move(fill.fit);
+  // by name, as results.json and the checkpoint hold them, so a resumed run reads back the same record
+  std::sort(rec.fit.parameters.begin(), rec.fit.parameters.end());
+  rec.status = rec.unfilled == 0        ? TrialStatus::Ok
+               : rec.unfilled == masked ? TrialStatus::Failed
+                                        : TrialStatus::Partial;
+  if (rec.unfilled) rec.reason = std::to_string(rec.unfilled) + " masked points left unfilled";
+  const ScoreInput score{series.values, fill.values, fill.variance, &mask, &series.axis, series.period, spec.holdout,
+                         fill.draws};
+  std::size_t offset = 0;
+  for (const auto& metric : spec.metrics) {
+    const std::size_t width = metric.impl->columns().size();
+    metric.impl->compute(score, std::span<double>(rec.metrics).subspan(offset, width));
+    offset += width;
+  }
+  check_finite_metrics(spec, rec, warnings);
+}
+
+}  // namespace
 
 std::vector<TrialRecord> run_task(const ExperimentSpec& spec, const LoadedData& data, const Task& task,
                                   std::vector<Warning>& warnings) {
@@ -105,16 +192,13 @@ std::vector<TrialRecord> run_task(const ExperimentSpec& spec, const LoadedData& 
   std::vector<TrialRecord> records;
   for (std::size_t m = 0; m < spec.methods.size(); ++m) records.push_back(blank_record(spec, data, task, m));
 
-  const MaskRequest request = mask_request_for(spec, data, task);
-  Rng rng(task_seed(spec.seed, task_key(spec, data, task)));
+  // Siblings cost O(series) per task: gathered once, and only when the scheme or a method reads them.
+  const Siblings siblings = task_uses_siblings(spec, task) ? siblings_of(data, task.series) : Siblings{};
   Mask mask;
   try {
-    mask = plan.scheme.impl->draw(request, rng);
+    mask = draw_task_mask(spec, data, task, siblings);
   } catch (const std::exception& e) {
-    for (auto& r : records) {
-      r.status = TrialStatus::MaskFailed;
-      r.reason = std::string("mask: ") + e.what();
-    }
+    fail_all(records, TrialStatus::MaskFailed, std::string("mask: ") + e.what());
     add_warning(warnings, {"mask-failed", records.front().series + " " + plan.scheme.label,
                            std::string("the scheme could not mask this series: ") + e.what(),
                            "lower the rate, shorten the holdout or choose another scheme for this series"});
@@ -127,87 +211,17 @@ std::vector<TrialRecord> run_task(const ExperimentSpec& spec, const LoadedData& 
                            "only " + std::to_string(masked) + " points masked per replicate",
                            "raise the rate or use a longer series; errors from so few points are noisy"});
   if (masked == 0) {
-    for (auto& r : records) {
-      r.status = TrialStatus::MaskFailed;
-      r.reason = "the mask hid no points (too few observed values for this rate): nothing to score";
-    }
+    fail_all(records, TrialStatus::MaskFailed,
+             "the mask hid no points (too few observed values for this rate): nothing to score");
     return records;
   }
   const std::vector<double> holed = apply_mask(series.values, mask);
-
-  FillRequest fill_request;
-  fill_request.values = holed;
-  fill_request.axis = &series.axis;
-  fill_request.period = series.period;
-  fill_request.working_dir = spec.base_dir.string();  // relative to ours: the child starts here
-  // Siblings cost O(series) per task: gather them only when a method uses them.
-  if (needs_siblings(spec))
-    for (std::size_t s = 0; s < data.series.size(); ++s) {
-      if (s == task.series || data.dataset[s] != data.dataset[task.series]) continue;
-      fill_request.siblings.emplace_back(data.series[s].values);
-      fill_request.sibling_names.push_back(data.series[s].label());
-    }
-
+  FillRequest fill_request = fill_request_for(spec, series, holed, siblings);
+  const std::string key = task_key(spec, data, task);
   for (std::size_t m = 0; m < spec.methods.size(); ++m) {
-    const auto& method = spec.methods[m];
-    TrialRecord& rec = records[m];
-    rec.masked = masked;
-    FillResult result;
-    const auto start = std::chrono::steady_clock::now();
     // a method's own draws: seeded from the task's key and the method, whatever the thread or order
-    fill_request.seed = task_seed(spec.seed, task_key(spec, data, task) + "|draws|" + method.label);
-    try {
-      check_needs(method, fill_request);
-      result = method.impl->fill(fill_request);
-      if (result.values.size() != holed.size())
-        throw MethodFailure("returned " + std::to_string(result.values.size()) + " values for " +
-                            std::to_string(holed.size()) + " points");
-    } catch (const Interrupted&) {
-      throw;  // not the method's failure: the task is not recorded
-    } catch (const std::exception& e) {
-      rec.status = TrialStatus::Failed;
-      rec.reason = e.what();
-      rec.unfilled = masked;
-      continue;
-    }
-    rec.seconds = std::chrono::duration<double>(std::chrono::steady_clock::now() - start).count();
-    bool changed = false;
-    for (std::size_t i = 0; i < holed.size(); ++i) {
-      if (!std::isnan(holed[i]) && result.values[i] != holed[i]) {
-        changed = true;
-        result.values[i] = holed[i];
-      }
-      if (mask[i] && !std::isfinite(result.values[i])) {
-        result.values[i] = std::nan("");
-        ++rec.unfilled;
-      }
-    }
-    if (changed)
-      add_warning(warnings, {"observed-changed", method.label,
-                             "the method changed observed values; they were restored before scoring",
-                             "fix the method so that it returns observed values unchanged"});
-    rec.clipped = result.clipped;
-    rec.fit = std::move(result.fit);
-    // by name, as results.json and the checkpoint hold them, so a resumed run reads back the same record
-    std::sort(rec.fit.parameters.begin(), rec.fit.parameters.end());
-    if (result.clipped)
-      add_warning(warnings, {"fills-clipped", method.label,
-                             "fills outside the method's bounds were moved to the bound (each trial's \"clipped\" counts them)",
-                             "many clipped points mean the method leaves the physical range: try transform=log or another method"});
-    rec.status = rec.unfilled == 0        ? TrialStatus::Ok
-                 : rec.unfilled == masked ? TrialStatus::Failed
-                                          : TrialStatus::Partial;
-    if (rec.unfilled) rec.reason = std::to_string(rec.unfilled) + " masked points left unfilled";
-
-    ScoreInput score{series.values, result.values, result.variance, &mask, &series.axis, series.period,
-                     spec.holdout, result.draws};
-    std::size_t offset = 0;
-    for (const auto& metric : spec.metrics) {
-      const std::size_t width = metric.impl->columns().size();
-      metric.impl->compute(score, std::span<double>(rec.metrics).subspan(offset, width));
-      offset += width;
-    }
-    check_finite_metrics(spec, rec, warnings);
+    fill_request.seed = task_seed(spec.seed, key + "|draws|" + spec.methods[m].label);
+    score_trial(spec, series, mask, masked, checked_fill(spec.methods[m], fill_request, mask), records[m], warnings);
   }
   return records;
 }
@@ -234,36 +248,21 @@ nlohmann::json describe_series(const ExperimentSpec& spec, const LoadedData& dat
 
 std::size_t run_tasks(const ExperimentSpec& spec, const LoadedData& data, const std::vector<Task>& tasks,
                       const std::vector<std::size_t>& todo, const RunOptions& options, const TaskSink& sink) {
-  std::atomic<std::size_t> next{0}, done{0};
-  std::atomic<bool> failed{false};
-  std::exception_ptr error;
   std::mutex sink_mutex;
-  const auto stopping = [&] { return failed.load() || (options.stop && options.stop->load()); };
-  auto worker = [&] {
-    for (std::size_t i = next++; i < todo.size() && !stopping(); i = next++) {
-      try {
-        std::vector<Warning> warnings;
-        std::vector<TrialRecord> records = run_task(spec, data, tasks[todo[i]], warnings);
-        std::lock_guard lock(sink_mutex);
-        if (failed) return;
-        sink(todo[i], std::move(records), std::move(warnings));
-        ++done;
-      } catch (const Interrupted&) {
-        return;  // stopped by the user: this task stays to do (--resume runs it)
-      } catch (...) {
-        std::lock_guard lock(sink_mutex);
-        if (!failed.exchange(true)) error = std::current_exception();
-        return;
-      }
+  std::size_t done = 0;
+  parallel_for(todo.size(), options.threads, [&](std::size_t i) {
+    if (options.stop && options.stop->load()) return;  // tasks in flight finish; no new one starts
+    std::vector<Warning> warnings;
+    std::vector<TrialRecord> records;
+    try {
+      records = run_task(spec, data, tasks[todo[i]], warnings);
+    } catch (const Interrupted&) {
+      return;  // stopped by the user: this task stays to do (--resume runs it)
     }
-  };
-  const unsigned threads =
-      std::max(1u, std::min<unsigned>(options.threads, static_cast<unsigned>(std::max<std::size_t>(todo.size(), 1))));
-  std::vector<std::thread> pool;
-  for (unsigned t = 1; t < threads; ++t) pool.emplace_back(worker);
-  worker();
-  for (auto& t : pool) t.join();
-  if (error) std::rethrow_exception(error);
+    std::lock_guard lock(sink_mutex);
+    sink(todo[i], std::move(records), std::move(warnings));
+    ++done;
+  });
   return done;
 }
 

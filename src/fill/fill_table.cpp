@@ -3,10 +3,48 @@
 #include <cmath>
 
 #include "gapmark/error.hpp"
+#include "gapmark/fill/checked_fill.hpp"
 #include "gapmark/number_format.hpp"
 #include "gapmark/rng.hpp"
 
 namespace gapmark {
+namespace {
+
+std::size_t count_gaps(const std::vector<double>& values) {
+  std::size_t gaps = 0;
+  for (std::size_t i = 0; i < values.size(); ++i)
+    if (std::isnan(values[i]) && (i == 0 || !std::isnan(values[i - 1]))) ++gaps;
+  return gaps;
+}
+
+bool has_param(const Bound<FillMethod>& method, const std::string& name) {
+  for (const auto& p : method.entry->params)
+    if (p.name == name) return true;
+  return false;
+}
+
+/// What the user of `gapmark fill` can do about an unmet need.
+std::string need_hint(UnmetNeed need) {
+  switch (need) {
+    case UnmetNeed::Period: return "give the seasonal period with --period N";
+    case UnmetNeed::Length: return "give a shorter --period, or use a method without a season";
+    case UnmetNeed::Siblings: return "select several columns (--column A --column B) to fill them together";
+    case UnmetNeed::Observed: return "use a method that needs fewer observed values, such as linear";
+    case UnmetNeed::None: break;
+  }
+  return "";
+}
+
+/// What the user can do about points a method ran but left empty.
+std::string unfilled_hint(const Bound<FillMethod>& method) {
+  if (has_param(method, "edges") && method.params.text("edges") == "leave")
+    return "edges=nearest fills the points before the first and after the last observation";
+  if (has_param(method, "reach"))
+    return "a larger reach=N lets the window find observed values further away";
+  return "try another method (gapmark methods lists them)";
+}
+
+}  // namespace
 
 FillTableOutput fill_table(WideTable& table, const std::vector<std::size_t>& columns,
                            const Bound<FillMethod>& method, std::size_t period, bool fit_complete_columns,
@@ -14,44 +52,60 @@ FillTableOutput fill_table(WideTable& table, const std::vector<std::size_t>& col
   FillTableOutput out;
   const std::vector<std::vector<double>> original = table.values;
   for (std::size_t c : columns) {
+    const std::vector<double>& given = original[c];
     FillTableReport report;
     report.column = table.columns[c];
-    std::vector<std::string> flags(original[c].size(), "0");
-    FillRequest request;
-    request.values = original[c];
-    request.axis = &table.axis;
-    request.period = period ? period : table.axis.default_period();
-    request.seed = task_seed(seed, table.columns[c]);
-    for (std::size_t s : columns) {
-      if (s == c) continue;
-      request.siblings.emplace_back(original[s]);
-      request.sibling_names.push_back(table.columns[s]);
-    }
-    for (double v : original[c]) report.gaps += std::isnan(v) ? 1 : 0;
-    if (report.gaps > 0 || fit_complete_columns) {
-      try {
-        check_needs(method, request);
-        FillResult result = method.impl->fill(request);
-        report.clipped = result.clipped;
-        report.fit = std::move(result.fit);
-        report.draws = std::move(result.draws);
-        if (result.values.size() != original[c].size())
-          throw MethodFailure("returned the wrong number of values");
-        for (std::size_t i = 0; i < result.values.size(); ++i) {
-          if (!std::isnan(original[c][i]) || !std::isfinite(result.values[i])) continue;
-          table.values[c][i] = result.values[i];
-          table.cells[c][i] = format_double(result.values[i]);
-          flags[i] = "1";
-          ++report.filled;
-        }
-      } catch (const MethodFailure& e) {
-        report.failure = e.what();
+    for (double v : given) report.missing += std::isnan(v) ? 1 : 0;
+    report.gaps = count_gaps(given);
+    std::vector<std::string> flags(given.size(), "0"), variance(given.size());
+    if (report.missing > 0 || fit_complete_columns) {
+      FillRequest request;
+      request.values = given;
+      request.axis = &table.axis;
+      request.period = period ? period : table.axis.default_period();
+      request.seed = task_seed(seed, table.columns[c]);
+      for (std::size_t s : columns) {
+        if (s == c) continue;
+        request.siblings.emplace_back(original[s]);
+        request.sibling_names.push_back(table.columns[s]);
+      }
+      const CheckedFill fill = checked_fill(method, request);
+      report.failure = fill.failure;
+      report.need = fill.need;
+      report.variance = !fill.failed() && fill.variance.size() == given.size();
+      report.clipped = fill.clipped;
+      report.fit = fill.fit;
+      report.draws = fill.draws;
+      for (std::size_t i = 0; i < fill.values.size(); ++i) {
+        if (!std::isnan(given[i]) || std::isnan(fill.values[i])) continue;
+        table.values[c][i] = fill.values[i];
+        table.cells[c][i] = format_double(fill.values[i]);
+        flags[i] = "1";
+        if (report.variance && std::isfinite(fill.variance[i])) variance[i] = format_double(fill.variance[i]);
+        ++report.filled;
       }
     }
     out.flags.push_back(std::move(flags));
+    out.variance.push_back(std::move(variance));
     out.reports.push_back(std::move(report));
   }
   return out;
+}
+
+std::string points_in_gaps(std::size_t points, std::size_t gaps) {
+  return std::to_string(points) + (points == 1 ? " point in " : " points in ") + std::to_string(gaps) +
+         (gaps == 1 ? " gap" : " gaps");
+}
+
+std::string unfilled_message(const FillTableReport& report, const Bound<FillMethod>& method) {
+  std::string line = "column '" + report.column + "': " + method.label + " left " + std::to_string(report.unfilled()) +
+                     " of the " + points_in_gaps(report.missing, report.gaps) + " unfilled";
+  if (!report.failure.empty()) {
+    line += " (it failed: " + report.failure + ")";
+    const std::string hint = need_hint(report.need);
+    return line + "; " + (hint.empty() ? "try another method (gapmark methods lists them)" : hint);
+  }
+  return line + "; " + unfilled_hint(method);
 }
 
 }  // namespace gapmark

@@ -149,11 +149,12 @@ private:
     if (model_ == "level") return ss::StructuralModel::local_level();
     if (model_ == "trend") return ss::StructuralModel::local_linear_trend();
     const std::size_t period = request.period;
-    if (period < 2) throw MethodFailure("model=seasonal needs a seasonal period; set \"period\" in the spec");
+    if (period < 2) throw MethodFailure("model=seasonal needs a seasonal period", UnmetNeed::Period);
     if (2 * period > request.values.size())
       throw MethodFailure("model=seasonal needs a seasonal period of at most half the series (period " +
                           std::to_string(period) + ", " + std::to_string(request.values.size()) +
-                          " points); set \"period\" in the spec");
+                          " points)",
+                          UnmetNeed::Length);
     if (harmonics_ > 0) {
       if (2 * harmonics_ >= period)
         throw MethodFailure("harmonics=" + std::to_string(harmonics_) + " needs a period above " +

@@ -9,17 +9,19 @@ namespace gapmark {
 
 void check_needs(const Needs& needs, const FillRequest& request) {
   if (needs.period && request.period < 2)
-    throw MethodFailure("needs a seasonal period of at least 2; set \"period\" for the data in the spec");
+    throw MethodFailure("needs a seasonal period of at least 2", UnmetNeed::Period);
   if (needs.period && request.period * 2 > request.values.size())
     throw MethodFailure("needs at least two full periods of data (period " +
                         std::to_string(request.period) + ", " +
-                        std::to_string(request.values.size()) + " points)");
+                        std::to_string(request.values.size()) + " points)",
+                        UnmetNeed::Length);
   if (needs.siblings && request.siblings.empty())
-    throw MethodFailure("needs sibling series on the same time axis; list several columns of one data set");
+    throw MethodFailure("needs sibling series on the same time axis", UnmetNeed::Siblings);
   const std::size_t observed = count_observed(request.values);
   if (observed < needs.min_observed)
     throw MethodFailure("needs at least " + std::to_string(needs.min_observed) +
-                        " observed values, found " + std::to_string(observed));
+                        " observed values, found " + std::to_string(observed),
+                        UnmetNeed::Observed);
 }
 
 ParamSpec edges_param() {

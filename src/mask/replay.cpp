@@ -142,6 +142,8 @@ public:
     return mask;
   }
 
+  bool uses_siblings() const override { return !from_.empty(); }
+
 private:
   /// The series whose gaps are learned: this one, or the sibling named by `from`.
   MaskRequest learning_source(const MaskRequest& request) const {

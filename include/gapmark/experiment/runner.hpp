@@ -9,12 +9,16 @@
 #include <filesystem>
 #include <functional>
 #include <optional>
+#include <span>
 #include <string>
 #include <vector>
 
+#include "gapmark/error.hpp"
 #include "gapmark/experiment/record.hpp"
 #include "gapmark/experiment/shard.hpp"
 #include "gapmark/experiment/spec.hpp"
+#include "gapmark/fill/method.hpp"
+#include "gapmark/mask/scheme.hpp"
 #include "gapmark/series.hpp"
 
 namespace gapmark {
@@ -45,10 +49,33 @@ std::vector<Task> build_tasks(const ExperimentSpec& spec, const LoadedData& data
 /// The key a task's seed is derived from: "series\x1fscheme\x1frate\x1freplicate".
 std::string task_key(const ExperimentSpec& spec, const LoadedData& data, const Task& task);
 
+/// The other series of a data source, beside one of them: spans into the
+/// loaded data (valid while it lives) and their labels.
+struct Siblings {
+  std::vector<std::string> names;
+  std::vector<std::span<const double>> values;
+};
+/// The siblings of series `series` (the other series of its data source).
+Siblings siblings_of(const LoadedData& data, std::size_t series);
+/// True when the task's scheme or one of the spec's methods reads siblings.
+bool task_uses_siblings(const ExperimentSpec& spec, const Task& task);
+
 /// The scheme's request for a task: the series, its axis, period and holdout,
-/// the rate, its name, and the other series of the same data source as
-/// siblings (spans into `data`, valid while it lives).
-MaskRequest mask_request_for(const ExperimentSpec& spec, const LoadedData& data, const Task& task);
+/// the rate, its name and `siblings`.
+MaskRequest mask_request_for(const ExperimentSpec& spec, const LoadedData& data, const Task& task,
+                             const Siblings& siblings);
+/// The mask of a task: its scheme's draw, seeded from the task's key, so the
+/// run and the report's example windows hide the same points. Throws what the
+/// scheme throws.
+Mask draw_task_mask(const ExperimentSpec& spec, const LoadedData& data, const Task& task, const Siblings& siblings);
+/// The request every method of a task fills: the masked values, the series'
+/// axis and period, `siblings`, and the spec's folder as working directory.
+FillRequest fill_request_for(const ExperimentSpec& spec, const Series& series, std::span<const double> holed,
+                             const Siblings& siblings);
+
+/// A failed fill's reason as a run records it: the method's words, and for an
+/// unmet need the hint that fits a spec ("set \"period\" for the data in the spec").
+std::string run_failure_reason(const std::string& failure, UnmetNeed need);
 
 /// Runs one task: every method on the same mask. Records in method order.
 std::vector<TrialRecord> run_task(const ExperimentSpec& spec, const LoadedData& data,

@@ -68,7 +68,7 @@ public:
 using MethodRegistry = Registry<FillMethod>;
 
 /// Checks the method's needs against a request; throws MethodFailure naming
-/// the unmet need ("needs a seasonal period; set \"period\" in the spec").
+/// the unmet need ("needs a seasonal period of at least 2", UnmetNeed::Period).
 void check_needs(const Needs& needs, const FillRequest& request);
 /// The period a bound method works with: its own `period=N` when given, else the data's.
 std::size_t method_period(const Bound<FillMethod>& method, std::size_t data_period);

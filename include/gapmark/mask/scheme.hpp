@@ -38,6 +38,8 @@ public:
   /// Draws a mask. Throws InputError when the request cannot be met (rate too
   /// high for the scheme, series too short).
   virtual Mask draw(const MaskRequest& request, Rng& rng) const = 0;
+  /// True when draw() reads the request's siblings; callers gather them only then.
+  virtual bool uses_siblings() const { return false; }
 };
 
 using SchemeRegistry = Registry<MaskScheme>;

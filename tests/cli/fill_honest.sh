@@ -1,0 +1,58 @@
+# `gapmark fill` tells the truth: a column left unfilled is an exit-2 error
+# naming the column, the reason and a hint that fits the method and the
+# command line; --allow-unfilled writes anyway and says how many points were
+# left; counts say points and gaps; --step places an irregular file on its
+# grid; --variance writes the method's predictive variance where it gives one.
+source "$(dirname "$0")/lib/common.bash"
+
+# 5 missing points in 3 gaps: a leading one, three in a row, one alone
+cat >one.csv <<'CSV'
+time,ozone
+2026-01-01,
+2026-01-02,5
+2026-01-03,
+2026-01-04,
+2026-01-05,
+2026-01-06,8
+2026-01-07,
+2026-01-08,9
+CSV
+
+"$GAPMARK" fill one.csv --method linear --out ok.csv 2>ok.log
+check "counts say points and gaps" grep -qx "ozone: filled 5 of 5 points in 3 gaps" ok.log
+
+expect_fail 2 "one.csv: column 'ozone': low-rank left 5 of the 5 points in 3 gaps unfilled \(it failed: needs sibling series on the same time axis\); select several columns .*--allow-unfilled" \
+  -- "$GAPMARK" fill one.csv --method low-rank --out lr.csv
+check "nothing written when a column stays unfilled" test ! -e lr.csv
+"$GAPMARK" fill one.csv --method low-rank --out lr.csv --allow-unfilled 2>lr.log
+check "--allow-unfilled writes the file" test -s lr.csv
+check "--allow-unfilled says how many points were left" grep -q "with 5 points left unfilled" lr.log
+
+expect_fail 2 "pchip:edges=leave left 1 of the 5 points in 3 gaps unfilled; edges=nearest fills" \
+  -- "$GAPMARK" fill one.csv --method pchip:edges=leave --out x.csv
+expect_fail 2 "window-mean:reach=1 left 1 of .*; a larger reach=N" \
+  -- "$GAPMARK" fill one.csv --method window-mean:reach=1 --out x.csv
+check "no edges hint for a method without edges" bash -c '! grep -q edges err.txt'
+expect_fail 2 "needs a seasonal period of at least 2\); give the seasonal period with --period N" \
+  -- "$GAPMARK" fill one.csv --method seasonal-mean --period 1 --out x.csv
+check "no spec hint on the command line" bash -c '! grep -q spec err.txt'
+
+# --step: a missing row is a time on the grid with missing values
+grep -v 2026-01-06 one.csv >irregular.csv
+expect_fail 2 "irregular.csv:7: irregular time step.*give --step" -- "$GAPMARK" fill irregular.csv --method linear --out x.csv
+"$GAPMARK" fill irregular.csv --method linear --step P1D --out stepped.csv 2>stepped.log
+check "--step adds the missing row" grep -q "^2026-01-06,7.66666666666666[67],1$" stepped.csv
+check "--step keeps every grid time" test "$(wc -l <stepped.csv)" -eq 9
+check "--step says how many rows it added" grep -q "added 1 rows" stepped.log
+expect_fail 2 "irregular.csv:3: time 2026-01-02 is not on the P2D grid" \
+  -- "$GAPMARK" fill irregular.csv --method linear --step P2D --out x.csv
+
+# --variance: kalman gives a variance at each filled point; linear gives none
+"$GAPMARK" fill one.csv --method kalman:model=level --variance --out var.csv 2>var.log
+check "a variance column" test "$(head -1 var.csv)" = "time,ozone,ozone_filled,ozone_variance"
+check "variance at filled points only" test "$(awk -F, 'NR>1 && (($3==1) != ($4!=""))' var.csv | wc -l)" -eq 0
+check "variance is positive" test "$(awk -F, 'NR>1 && $3==1 && !($4>0)' var.csv | wc -l)" -eq 0
+"$GAPMARK" fill one.csv --method linear --variance --out novar.csv 2>novar.log
+check "an empty variance column for a method without one" test "$(cut -d, -f4 novar.csv | sort -u | tr '\n' '|')" = "|ozone_variance|"
+check "and it says so" grep -q "linear gives no variance" novar.log
+finish
