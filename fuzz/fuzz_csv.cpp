@@ -6,8 +6,8 @@
 #include <cstdint>
 #include <string_view>
 
-#include "gapmark/data/long_layout.hpp"
-#include "gapmark/data/raw_table.hpp"
+#include "gapmark/long_layout.hpp"
+#include "gapmark/raw_table.hpp"
 #include "gapmark/error.hpp"
 #include "gapmark/table_io.hpp"
 

@@ -7,9 +7,9 @@
 #include <string>
 #include <vector>
 
-#include "gapmark/data/long_layout.hpp"
 #include "gapmark/error.hpp"
-#include "gapmark/data/raw_table.hpp"
+#include "gapmark/long_layout.hpp"
+#include "gapmark/raw_table.hpp"
 #include "gapmark/table_io.hpp"
 #include "gapmark/wide_write.hpp"
 #include "number_options.hpp"

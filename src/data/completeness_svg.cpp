@@ -11,7 +11,7 @@
 #include <cmath>
 #include <cstdio>
 
-#include "gapmark/data/time_grid.hpp"
+#include "gapmark/time_grid.hpp"
 
 namespace gapmark::data {
 namespace {

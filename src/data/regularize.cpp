@@ -7,7 +7,7 @@
 #include <limits>
 
 #include "gapmark/data/decimal_sum.hpp"
-#include "gapmark/data/time_grid.hpp"
+#include "gapmark/time_grid.hpp"
 #include "gapmark/error.hpp"
 #include "gapmark/number_format.hpp"
 

@@ -5,7 +5,7 @@
 #include <algorithm>
 #include <map>
 
-#include "gapmark/data/long_layout.hpp"
+#include "gapmark/long_layout.hpp"
 #include "gapmark/error.hpp"
 #include "gapmark/experiment/runner.hpp"
 #include "gapmark/hash.hpp"

@@ -6,7 +6,7 @@
 #include <sstream>
 #include <string>
 
-#include "gapmark/data/raw_table.hpp"
+#include "gapmark/raw_table.hpp"
 #include "gapmark/error.hpp"
 #include "gapmark/table_io.hpp"
 

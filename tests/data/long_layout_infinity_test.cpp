@@ -6,7 +6,7 @@
 
 #include <string>
 
-#include "gapmark/data/long_layout.hpp"
+#include "gapmark/long_layout.hpp"
 #include "gapmark/error.hpp"
 
 using namespace gapmark;

@@ -9,7 +9,7 @@
 #include <unistd.h>
 
 #include "data_helpers.hpp"
-#include "gapmark/data/long_layout.hpp"
+#include "gapmark/long_layout.hpp"
 #include "gapmark/experiment/runner.hpp"
 
 using namespace gapmark;

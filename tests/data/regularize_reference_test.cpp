@@ -11,7 +11,7 @@
 
 #include "data_helpers.hpp"
 #include "gapmark/data/regularize.hpp"
-#include "gapmark/data/time_grid.hpp"
+#include "gapmark/time_grid.hpp"
 
 using namespace gapmark;
 using namespace gapmark::data;

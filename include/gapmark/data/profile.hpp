@@ -15,7 +15,7 @@
 #include <utility>
 #include <vector>
 
-#include "gapmark/data/raw_table.hpp"
+#include "gapmark/raw_table.hpp"
 #include "gapmark/data/value_screen.hpp"
 #include "gapmark/time_axis.hpp"
 

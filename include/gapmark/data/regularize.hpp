@@ -25,7 +25,7 @@
 #include <string>
 #include <vector>
 
-#include "gapmark/data/raw_table.hpp"
+#include "gapmark/raw_table.hpp"
 #include "gapmark/time_axis.hpp"
 
 namespace gapmark::data {

@@ -1,6 +1,6 @@
 // Calendar bins and grids for raw times (see time_grid.hpp). Calendar facts
 // (civil dates, month numbers and lengths) come from core's calendar.hpp.
-#include "gapmark/data/time_grid.hpp"
+#include "gapmark/time_grid.hpp"
 
 #include <algorithm>
 #include <map>

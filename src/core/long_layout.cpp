@@ -1,12 +1,12 @@
 // Regular long-layout tables: groups' rows checked onto their grids, as
 // series or side by side in a wide table, and back (see long_layout.hpp).
-#include "gapmark/data/long_layout.hpp"
+#include "gapmark/long_layout.hpp"
 
 #include <algorithm>
 #include <cmath>
 
-#include "gapmark/data/raw_table.hpp"
-#include "gapmark/data/time_grid.hpp"
+#include "gapmark/raw_table.hpp"
+#include "gapmark/time_grid.hpp"
 #include "gapmark/error.hpp"
 #include "gapmark/text_safety.hpp"
 #include "gapmark/number_format.hpp"

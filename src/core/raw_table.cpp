@@ -1,7 +1,7 @@
 // Reading raw rows: find the time, group and value columns, parse every time
 // once, check that the times agree in kind and UTC offset, and sort the rows
 // into groups by their key values.
-#include "gapmark/data/raw_table.hpp"
+#include "gapmark/raw_table.hpp"
 
 #include <algorithm>
 #include <map>
