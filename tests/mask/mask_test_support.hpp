@@ -7,6 +7,7 @@
 #include <string>
 #include <vector>
 
+#include "gapmark/error.hpp"
 #include "gapmark/mask/scheme.hpp"
 #include "gapmark/params.hpp"
 #include "gapmark/rng.hpp"
@@ -14,6 +15,17 @@
 namespace gapmark::test {
 
 inline constexpr double kNaN = std::numeric_limits<double>::quiet_NaN();
+
+/// The message of the InputError `f` throws; "(no error)" when it throws none.
+template <class F>
+std::string error_of(F&& f) {
+  try {
+    f();
+  } catch (const InputError& e) {
+    return e.what();
+  }
+  return "(no error)";
+}
 
 /// A scheme bound from "name:key=value,..." text, as a spec would name it.
 inline Bound<MaskScheme> scheme(const std::string& text) {

@@ -10,7 +10,7 @@
 #include <map>
 #include <vector>
 
-#include "data_helpers.hpp"
+#include "mask_test_support.hpp"
 #include "gapmark/mask/scheme.hpp"
 #include "gapmark/rng.hpp"
 
@@ -172,11 +172,11 @@ TEST_CASE("replay needs real gaps, and a calendar phase needs dated times") {
   const TimeAxis axis = TimeAxis::index(200);
   MaskRequest request{full, &axis, 0, 0, 0.1, "spec.json: /schemes/0, series 'x'"};
   Rng rng(1);
-  CHECK(data_test::error_of([&] { replay().impl->draw(request, rng); }) ==
+  CHECK(test::error_of([&] { replay().impl->draw(request, rng); }) ==
         "spec.json: /schemes/0, series 'x': replay: the series has no gaps between observed values to learn from; use "
         "blocks or random");
   full[50] = std::nan("");
-  CHECK(data_test::error_of([&] { replay(":phase=hour").impl->draw(request, rng); }).find("needs dated times") !=
+  CHECK(test::error_of([&] { replay(":phase=hour").impl->draw(request, rng); }).find("needs dated times") !=
         std::string::npos);
   // On an integer axis without a period there is no phase: the one-point gap is replayed anywhere.
   const Mask mask = replay().impl->draw(request, rng);
@@ -212,13 +212,13 @@ TEST_CASE("replay from a sibling: a complete series gets gaps shaped like its si
 
   // Naming the series itself learns from its own gaps: none here.
   Rng rng(1);
-  CHECK(data_test::error_of([&] { replay(":from=pen1").impl->draw(request, rng); }).find("no gaps between observed") !=
+  CHECK(test::error_of([&] { replay(":from=pen1").impl->draw(request, rng); }).find("no gaps between observed") !=
         std::string::npos);
-  CHECK(data_test::error_of([&] { replay(":from=pen9").impl->draw(request, rng); }) ==
+  CHECK(test::error_of([&] { replay(":from=pen9").impl->draw(request, rng); }) ==
         "spec.json: /schemes/0, series 'pen1': replay: no series 'pen9' beside this one to learn gaps from (there are: "
         "pen2)");
   const std::vector<double> shorter(100, 1.0);
   request.siblings = {std::span<const double>(shorter)};
-  CHECK(data_test::error_of([&] { scheme.impl->draw(request, rng); }).find("not on this series' time axis") !=
+  CHECK(test::error_of([&] { scheme.impl->draw(request, rng); }).find("not on this series' time axis") !=
         std::string::npos);
 }
