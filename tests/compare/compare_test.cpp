@@ -8,6 +8,7 @@
 #include <cmath>
 #include <fstream>
 
+#include "../reference_json.hpp"
 #include "gapmark/compare/compare.hpp"
 #include "gapmark/error.hpp"
 #include "gapmark/experiment/results_io.hpp"
@@ -58,9 +59,7 @@ ResultSet run_with_bias(const ExperimentSpec& spec, double bias) {
 }
 
 nlohmann::json load_cases() {
-  std::ifstream in(std::string(GAPMARK_SOURCE_DIR) + "/reference/compare/wilcoxon_cases.json");
-  REQUIRE(in);
-  return nlohmann::json::parse(in);
+  return gapmark::test::reference_json("compare/wilcoxon_cases.json");
 }
 
 /// One cell, one metric column, trials from per-replicate values; the

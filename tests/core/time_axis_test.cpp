@@ -8,6 +8,7 @@
 #include <string>
 #include <vector>
 
+#include "../reference_json.hpp"
 #include "gapmark/error.hpp"
 #include "gapmark/time_axis.hpp"
 
@@ -428,9 +429,7 @@ TEST_CASE("default_period per step") {
 // Calendar facts from Python's datetime and pandas, stored by
 // reference/iso_time/make_reference.py in reference/iso_time/iso_time.json.
 TEST_CASE("calendar facts agree with Python datetime and pandas (reference/iso_time)") {
-  std::ifstream in(std::string(GAPMARK_SOURCE_DIR) + "/reference/iso_time/iso_time.json");
-  REQUIRE(in.good());
-  const nlohmann::json ref = nlohmann::json::parse(in);
+  const nlohmann::json ref = gapmark::test::reference_json("iso_time/iso_time.json");
   INFO("reference made with Python " << ref["versions"]["python"].get<std::string>()
                                      << ", pandas " << ref["versions"]["pandas"].get<std::string>());
 

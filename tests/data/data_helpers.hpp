@@ -6,6 +6,7 @@
 #include <sstream>
 #include <string>
 
+#include "../reference_json.hpp"
 #include "gapmark/raw_table.hpp"
 #include "gapmark/error.hpp"
 #include "gapmark/table_io.hpp"
@@ -27,10 +28,7 @@ std::string error_of(F&& f) {
 }
 
 inline nlohmann::json reference(const std::string& relative) {
-  std::ifstream in(std::string(GAPMARK_SOURCE_DIR) + "/reference/" + relative);
-  std::stringstream s;
-  s << in.rdbuf();
-  return nlohmann::json::parse(s.str());
+  return gapmark::test::reference_json(relative);
 }
 
 inline std::string source_path(const std::string& relative) { return std::string(GAPMARK_SOURCE_DIR) + "/" + relative; }

@@ -7,13 +7,12 @@
 #include <string>
 #include <vector>
 
+#include "../reference_json.hpp"
+
 namespace gapmark::test {
 
 inline nlohmann::json read_reference(const std::string& relative) {
-  const std::string path = std::string(GAPMARK_SOURCE_DIR) + "/reference/downstream/" + relative;
-  std::ifstream in(path);
-  if (!in) throw std::runtime_error("cannot open " + path);
-  return nlohmann::json::parse(in);
+  return gapmark::test::reference_json("downstream/" + relative);
 }
 
 /// An open series exported from R's datasets package.

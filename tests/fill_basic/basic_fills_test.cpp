@@ -4,6 +4,7 @@
 #include <fstream>
 #include <nlohmann/json.hpp>
 
+#include "../reference_json.hpp"
 #include "gapmark/error.hpp"
 #include "gapmark/fill/method.hpp"
 
@@ -72,9 +73,7 @@ TEST_CASE("methods that need an observation say so") {
 TEST_CASE("linear and carry fills agree with numpy.interp and pandas ffill/bfill") {
   // Source: reference/basic_fills/basic_fills.json, made by
   // reference/basic_fills/make_reference.py with numpy and pandas (versions inside).
-  std::ifstream in(std::string(GAPMARK_SOURCE_DIR) + "/reference/basic_fills/basic_fills.json");
-  REQUIRE(in.good());
-  const auto ref = nlohmann::json::parse(in);
+  const auto ref = gapmark::test::reference_json("basic_fills/basic_fills.json");
   REQUIRE(ref["cases"].size() >= 3);
   for (const auto& c : ref["cases"]) {
     CAPTURE(c["name"].get<std::string>());

@@ -15,6 +15,7 @@
 #include <string>
 #include <vector>
 
+#include "../reference_json.hpp"
 #include "fill_helpers.hpp"
 
 using namespace gapmark;
@@ -23,9 +24,7 @@ using namespace gapmark::test;
 namespace {
 
 nlohmann::json load_cases() {
-  std::ifstream in(std::string(GAPMARK_SOURCE_DIR) + "/reference/interpolation/interpolation_cases.json");
-  REQUIRE(in.good());
-  return nlohmann::json::parse(in);
+  return gapmark::test::reference_json("interpolation/interpolation_cases.json");
 }
 
 std::vector<double> from_json(const nlohmann::json& a) {

@@ -8,6 +8,7 @@
 #include <string>
 #include <vector>
 
+#include "../reference_json.hpp"
 #include "fill_helpers.hpp"
 #include "gapmark/fill/seasonal_decomposition.hpp"
 
@@ -33,9 +34,7 @@ std::vector<double> trend_plus_season(std::size_t n, const std::vector<double>& 
 
 TEST_CASE("classical decomposition agrees with statsmodels seasonal_decompose(model='additive')") {
   // Source: statsmodels 0.13.5 (Debian), stored by reference/interpolation/make_reference.py.
-  std::ifstream in(std::string(GAPMARK_SOURCE_DIR) + "/reference/interpolation/seasonal_decomposition.json");
-  REQUIRE(in.good());
-  const auto doc = nlohmann::json::parse(in);
+  const auto doc = gapmark::test::reference_json("interpolation/seasonal_decomposition.json");
   REQUIRE(doc["cases"].size() == 2);  // an even (12) and an odd (7) period
   for (const auto& c : doc["cases"]) {
     CAPTURE(c["name"].get<std::string>());
@@ -56,9 +55,7 @@ TEST_CASE("classical decomposition agrees with statsmodels seasonal_decompose(mo
 TEST_CASE("STL without robustness agrees with statsmodels STL(robust=False)") {
   // Source: statsmodels 0.13.5 (Debian) STL defaults, stored by
   // reference/interpolation/make_reference.py with the configuration used.
-  std::ifstream in(std::string(GAPMARK_SOURCE_DIR) + "/reference/interpolation/seasonal_decomposition.json");
-  REQUIRE(in.good());
-  const auto doc = nlohmann::json::parse(in);
+  const auto doc = gapmark::test::reference_json("interpolation/seasonal_decomposition.json");
   for (const auto& c : doc["cases"]) {
     CAPTURE(c["name"].get<std::string>());
     REQUIRE(c["stl_config"]["seasonal"] == 7);

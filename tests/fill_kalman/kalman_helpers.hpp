@@ -12,6 +12,7 @@
 
 #include <nlohmann/json.hpp>
 
+#include "../reference_json.hpp"
 #include "gapmark/fill/method.hpp"
 #include "gapmark/params.hpp"
 #include "gapmark/rng.hpp"
@@ -23,10 +24,7 @@ constexpr double kNaN = std::numeric_limits<double>::quiet_NaN();
 
 /// reference/kalman/statsmodels_reference.json (statsmodels UnobservedComponents).
 inline const nlohmann::json& statsmodels_reference() {
-  static const nlohmann::json doc = [] {
-    std::ifstream in(kReferenceDir + "statsmodels_reference.json");
-    return nlohmann::json::parse(in);
-  }();
+  static const nlohmann::json doc = gapmark::test::reference_json("kalman/statsmodels_reference.json");
   return doc;
 }
 

@@ -13,6 +13,7 @@
 #include <fstream>
 #include <nlohmann/json.hpp>
 
+#include "../reference_json.hpp"
 #include "gapmark/fill/soft_impute.hpp"
 #include "gapmark/number_format.hpp"
 #include "lowrank_helpers.hpp"
@@ -23,9 +24,7 @@ using namespace gapmark::test;
 namespace {
 
 nlohmann::json load_reference() {
-  std::ifstream in(std::string(GAPMARK_SOURCE_DIR) + "/reference/low_rank/soft_impute_cases.json");
-  REQUIRE(in.good());
-  return nlohmann::json::parse(in);
+  return gapmark::test::reference_json("low_rank/soft_impute_cases.json");
 }
 
 std::vector<double> vec(const nlohmann::json& a) {

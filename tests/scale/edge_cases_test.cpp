@@ -85,6 +85,8 @@ void check_trials(const ResultSet& results, bool rmse_at_least_mae = true) {
     for (double v : t.metrics) CHECK_FALSE(std::isinf(v));
   }
   MESSAGE(ok << " of " << results.trials.size() << " trials ok");
+  // An edge case that every method fails checks nothing above: some must succeed.
+  CHECK_MESSAGE(ok > 0, "no trial succeeded");
   if (std::getenv("GAPMARK_EDGE_DETAILS")) {
     std::set<std::string> seen;
     for (const auto& t : results.trials)

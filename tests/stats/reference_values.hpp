@@ -12,13 +12,12 @@
 #include <string>
 #include <vector>
 
+#include "../reference_json.hpp"
+
 namespace stats_test {
 
 inline nlohmann::json load_reference(const std::string& file) {
-  const std::string path = std::string(GAPMARK_SOURCE_DIR) + "/reference/stats/" + file;
-  std::ifstream in(path);
-  if (!in) throw std::runtime_error("cannot open " + path);
-  return nlohmann::json::parse(in);
+  return gapmark::test::reference_json("stats/" + file);
 }
 
 /// JSON number, or NaN for null.
