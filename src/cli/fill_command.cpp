@@ -140,6 +140,10 @@ void add_fill(CLI::App& app, Action& action) {
         std::cerr << "added " << table.added_rows << " rows for the " << table.axis.step().iso()
                   << " steps the file had no row for (their values were missing)\n";
       for (const auto& r : result.reports) {
+        if (r.missing == 0) {
+          std::cerr << r.column << ": no missing points\n";
+          continue;
+        }
         std::cerr << r.column << ": filled " << r.filled << " of " << points_in_gaps(r.missing, r.gaps);
         if (r.clipped) std::cerr << " (" << r.clipped << " moved into the bounds)";
         if (o->variance && r.filled > 0 && !r.variance) std::cerr << " (" << method.label << " gives no variance)";
