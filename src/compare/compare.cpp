@@ -8,7 +8,6 @@
 
 #include "gapmark/error.hpp"
 #include "gapmark/number_format.hpp"
-#include "gapmark/report/table_text.hpp"
 #include "gapmark/stats/multiple_testing.hpp"
 #include "gapmark/stats/signed_rank_power.hpp"
 #include "gapmark/stats/wilcoxon.hpp"

@@ -9,7 +9,6 @@
 #include "gapmark/error.hpp"
 #include "gapmark/fill/method.hpp"
 #include "gapmark/number_format.hpp"
-#include "gapmark/report/table_text.hpp"
 #include "gapmark/stats/signed_rank_power.hpp"
 
 namespace gapmark::data {

@@ -6,7 +6,6 @@
 #include "gapmark/data/text_columns.hpp"
 #include "gapmark/error.hpp"
 #include "gapmark/number_format.hpp"
-#include "gapmark/report/table_text.hpp"
 
 namespace gapmark::data {
 
