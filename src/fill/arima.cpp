@@ -152,7 +152,8 @@ private:
     if (seasonal_given_ && (o.seasonal_p || o.seasonal_d || o.seasonal_q)) {
       if (request.period < 2)
         throw MethodFailure("seasonal=" + std::to_string(o.seasonal_p) + "," + std::to_string(o.seasonal_d) + "," +
-                            std::to_string(o.seasonal_q) + " needs a seasonal period; set \"period\" in the spec");
+                            std::to_string(o.seasonal_q) + " needs a seasonal period",
+                            UnmetNeed::Period);
       o.period = request.period;
     }
     const int diffs = o.d + o.seasonal_d;
