@@ -117,7 +117,8 @@ public:
     for (const auto& s : request.siblings)
       if (s.size() == n && count_observed(s) > 0) columns.push_back(s);
     if (columns.size() < 2)
-      throw MethodFailure("needs at least one sibling series of the same length with observed values");
+      throw MethodFailure("needs at least one sibling series of the same length with observed values",
+                          UnmetNeed::Siblings);
     const auto k = static_cast<Eigen::Index>(columns.size());
     if (rank_ > 0 && lambda_fraction_ == 0.0 && rank_ >= columns.size())
       throw MethodFailure("rank " + std::to_string(rank_) + " leaves nothing to complete with " +
