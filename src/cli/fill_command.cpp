@@ -142,12 +142,12 @@ void add_fill(CLI::App& app, Action& action) {
       for (const auto& r : result.reports) {
         if (r.missing == 0) {
           std::cerr << r.column << ": no missing points\n";
-          continue;
+        } else {
+          std::cerr << r.column << ": filled " << r.filled << " of " << points_in_gaps(r.missing, r.gaps);
+          if (r.clipped) std::cerr << " (" << r.clipped << " moved into the bounds)";
+          if (o->variance && r.filled > 0 && !r.variance) std::cerr << " (" << method.label << " gives no variance)";
+          std::cerr << "\n";
         }
-        std::cerr << r.column << ": filled " << r.filled << " of " << points_in_gaps(r.missing, r.gaps);
-        if (r.clipped) std::cerr << " (" << r.clipped << " moved into the bounds)";
-        if (o->variance && r.filled > 0 && !r.variance) std::cerr << " (" << method.label << " gives no variance)";
-        std::cerr << "\n";
         if (!o->fit.empty() && !r.fit.empty()) std::cerr << "  fit: " << fit_line(r.fit) << "\n";
         if (r.unfilled() > 0) std::cerr << "warning: " << unfilled_message(r, method) << "\n";
       }
