@@ -17,6 +17,7 @@
 #include "gapmark/experiment/checkpoint.hpp"
 #include "gapmark/experiment/runner.hpp"
 #include "gapmark/experiment/spec.hpp"
+#include "gapmark/report/final_reports.hpp"
 
 namespace {
 

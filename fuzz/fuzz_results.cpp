@@ -11,6 +11,7 @@
 #include <string>
 
 #include "gapmark/error.hpp"
+#include "gapmark/analysis/results_json.hpp"
 #include "gapmark/experiment/results_io.hpp"
 #include "gapmark/analysis/summary.hpp"
 

@@ -16,6 +16,7 @@
 #include <string>
 
 #include "gapmark/experiment/runner.hpp"
+#include "gapmark/report/final_reports.hpp"
 #include "gapmark/number_format.hpp"
 #include "gapmark/rng.hpp"
 

@@ -6,7 +6,6 @@
 
 #include "gapmark/analysis/summary.hpp"
 #include "gapmark/number_format.hpp"
-#include "gapmark/report/table_text.hpp"
 
 namespace gapmark {
 

@@ -7,6 +7,7 @@
 
 #include "commands.hpp"
 #include "gapmark/experiment/merge.hpp"
+#include "gapmark/report/final_reports.hpp"
 #include "output_rules.hpp"
 #include "stop_signals.hpp"
 
@@ -50,14 +51,15 @@ void add_merge(CLI::App& app, Action& action) {
       // once and writes nothing; without them the default (quit) is right.
       if (spec && o->allow_external && !external_commands(*spec).empty())
         catch_stop_signals(StoppedWork::merge_with_programs);
-      ResultSet results = merge_checkpoints(
-          inputs, MergeOptions{.threads = threads, .spec = spec ? &*spec : nullptr, .allow_external = o->allow_external});
+      ResultSet results = merge_checkpoints(inputs, MergeOptions{.spec = spec ? &*spec : nullptr});
+      const Summary summary = finish_results(
+          results, FinishOptions{.threads = threads, .spec = spec ? &*spec : nullptr, .allow_external = o->allow_external});
       if (stop_flag().load()) {
         std::cerr << "interrupted: nothing written to " << o->out << "; run the merge again\n";
         return stopped_exit_status();
       }
       prepare_output_folder(o->out);
-      const auto written = write_final_reports(results, o->out, threads);
+      const auto written = write_final_reports(results, summary, o->out, threads);
       if (!o->quiet)
         std::cerr << "merged " << inputs.size() << " folders (" << results.trials.size() << " trials); wrote "
                   << written.size() << " files to " << o->out << "\n";

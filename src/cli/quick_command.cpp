@@ -17,7 +17,7 @@
 #include "gapmark/error.hpp"
 #include "gapmark/experiment/runner.hpp"
 #include "gapmark/analysis/summary.hpp"
-#include "gapmark/report/reporter.hpp"
+#include "gapmark/report/final_reports.hpp"
 #include "gapmark/number_format.hpp"
 
 namespace gapmark::cli {
@@ -59,9 +59,10 @@ void add_quick(CLI::App& app, Action& action) {
       ExperimentSpec spec = parse_spec(setup.spec_text, setup.spec_path.string(), o->request.out);
       RunOptions run;
       run.threads = o->threads ? o->threads : std::max(1u, std::thread::hardware_concurrency());
-      const ResultSet results = run_experiment(spec, run);  // with example windows
-      const Summary summary = summarize(results);
-      const auto written = write_reports(results, spec.output.string());
+      ResultSet results = run_experiment(spec, run);
+      const Summary summary =
+          finish_results(results, FinishOptions{.threads = run.threads, .spec = &spec, .allow_external = true});
+      const auto written = write_final_reports(results, summary, spec.output, run.threads);
       // The verdict of the variable's own series (the file's other columns were scored too, as siblings).
       RunVerdict shown = summary.verdict;
       std::erase_if(shown.series, [&](const SeriesVerdict& v) {

@@ -4,7 +4,7 @@
 
 #include "commands.hpp"
 #include "gapmark/experiment/results_io.hpp"
-#include "gapmark/report/reporter.hpp"
+#include "gapmark/report/final_reports.hpp"
 #include "output_rules.hpp"
 
 namespace gapmark::cli {
@@ -26,7 +26,7 @@ void add_report(CLI::App& app, Action& action) {
     action = [o] {
       const ResultSet results = read_results(o->results);
       check_output_dir(o->out, {o->results}, o->force, "give another --out");
-      const auto written = write_reports(results, o->out);
+      const auto written = write_final_reports(results, o->out);
       if (!o->quiet)
         for (const auto& path : written) std::cerr << "wrote " << path << "\n";
       return kOk;

@@ -13,6 +13,7 @@
 #include <thread>
 
 #include "commands.hpp"
+#include "gapmark/report/final_reports.hpp"
 #include "gapmark/error.hpp"
 #include "gapmark/experiment/runner.hpp"
 #include "gapmark/fill/external_program.hpp"

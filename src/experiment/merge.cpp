@@ -1,7 +1,5 @@
 #include "gapmark/experiment/merge.hpp"
 
-#include "gapmark/experiment/examples.hpp"
-
 #include <fcntl.h>
 #include <unistd.h>
 
@@ -10,18 +8,11 @@
 #include <cmath>
 #include <cstring>
 #include <fstream>
-#include <functional>
-#include <future>
 #include <map>
-#include <ostream>
 #include <unordered_set>
 
 #include "gapmark/error.hpp"
-#include "gapmark/output_file.hpp"
-#include "gapmark/experiment/spec_safety.hpp"
 #include "gapmark/experiment/record_checks.hpp"
-#include "gapmark/experiment/results_io.hpp"
-#include "gapmark/report/reporter.hpp"
 #include "gapmark/table_io.hpp"
 
 namespace gapmark {
@@ -66,25 +57,6 @@ std::vector<MetricColumn> columns_from(const json& header, const std::string& wh
     throw InputError(where, std::string("header: malformed columns: ") + e.what());
   }
   return out;
-}
-
-/// Writes each line of `text` after `prefix` (an element nested that deep).
-void write_indented(std::ostream& out, const std::string& text, const std::string& prefix) {
-  out << prefix;
-  std::size_t from = 0;
-  for (std::size_t nl = text.find('\n'); nl != std::string::npos; nl = text.find('\n', from)) {
-    out.write(text.data() + from, static_cast<std::streamsize>(nl + 1 - from));
-    out << prefix;
-    from = nl + 1;
-  }
-  out.write(text.data() + from, static_cast<std::streamsize>(text.size() - from));
-}
-
-/// Where a streamed array goes in the skeleton: after `marker`'s "[".
-std::size_t splice_point(const std::string& skeleton, const std::string& marker, std::size_t from) {
-  const auto at = skeleton.find(marker, from);
-  if (at == std::string::npos) throw std::logic_error("results.json layout changed: '" + marker + "' not found");
-  return at + marker.size() - 1;  // between '[' and ']'
 }
 
 }  // namespace
@@ -178,144 +150,7 @@ ResultSet merge_checkpoints(const std::vector<fs::path>& inputs, const MergeOpti
   json per_method = json::object();
   for (const auto& [m, s] : method_seconds) per_method[m] = s;
   results.timing = {{"fill_seconds_by_method", per_method}, {"checkpoints", heads.size()}};
-  // Example windows need the data again: read from the folder of the spec
-  // the user named (never from a folder a checkpoint records).
-  std::string why_not = "no spec given (gapmark merge --spec SPEC reads the data again from the spec's folder)";
-  if (options.spec)
-    why_not = attach_examples(results, *options.spec,
-                              ExampleOptions{.threads = options.threads, .allow_external = options.allow_external});
-  if (!why_not.empty())
-    results.warnings.push_back({"no-examples", "report", "no example windows in the report: " + why_not,
-                                "give the run's spec with --spec, where its data files can be read"});
-  else if (!options.allow_external && !external_commands(*options.spec).empty())
-    results.warnings.push_back({"examples-without-external", "report",
-                                "the example windows leave out the external methods: no outside program is "
-                                "started again without --allow-external",
-                                "add --allow-external to draw them"});
   return results;
-}
-
-void write_results_json(std::ostream& out, const ResultSet& results, const Summary& summary) {
-  // The skeleton: every field but the trials and the summary's groups, laid
-  // out by results_to_json itself; the two long arrays are spliced in.
-  ResultSet frame;
-  frame.context = results.context;
-  frame.series = results.series;
-  frame.columns = results.columns;
-  frame.warnings = results.warnings;
-  frame.rank_by = results.rank_by;
-  frame.alpha = results.alpha;
-  frame.equivalence = results.equivalence;
-  frame.timing = results.timing;
-  frame.examples = results.examples;
-  Summary outline = summary;  // everything but the groups, which are spliced in
-  outline.groups.clear();
-  const std::string skeleton = results_to_json(frame, outline).dump(1) + "\n";
-
-  const std::size_t groups_at = splice_point(skeleton, "\n  \"groups\": []", splice_point(skeleton, "\n \"summary\": {", 0));
-  const std::size_t trials_at = splice_point(skeleton, "\n \"trials\": []", 0);
-
-  const auto write_groups = [&] {
-    if (summary.groups.empty()) return;
-    Summary one = outline;
-    one.across.clear();
-    out << '\n';
-    for (std::size_t i = 0; i < summary.groups.size(); ++i) {
-      one.groups.assign(1, summary.groups[i]);
-      if (i) out << ",\n";
-      write_indented(out, summary_to_json(one, frame).at("groups").at(0).dump(1), "   ");
-    }
-    out << "\n  ";
-  };
-  const auto write_trials = [&] {
-    if (results.trials.empty()) return;
-    out << '\n';
-    for (std::size_t i = 0; i < results.trials.size(); ++i) {
-      if (i) out << ",\n";
-      write_indented(out, trial_to_json(results.trials[i], results.columns).dump(1), "  ");
-    }
-    out << "\n ";
-  };
-  struct Splice {
-    std::size_t at;
-    std::function<void()> write;
-  };
-  std::vector<Splice> splices{{groups_at, write_groups}, {trials_at, write_trials}};
-  if (splices[1].at < splices[0].at) std::swap(splices[0], splices[1]);
-  std::size_t from = 0;
-  for (const auto& s : splices) {
-    out.write(skeleton.data() + from, static_cast<std::streamsize>(s.at - from));
-    s.write();
-    from = s.at;
-  }
-  out.write(skeleton.data() + from, static_cast<std::streamsize>(skeleton.size() - from));
-}
-
-namespace {
-
-/// Writes a file through a temporary name beside `path` (TempFile): `write`
-/// fills the stream; the data are flushed to disk. Returns the temporary
-/// name, to be renamed once every file of the set is written. Errors name `path`.
-fs::path write_temp(const fs::path& path, const std::function<void(std::ostream&)>& write) {
-  TempFile temp(path);
-  temp.write_with(write);
-  return temp.release();
-}
-
-}  // namespace
-
-std::vector<std::string> write_final_reports(const ResultSet& results, const fs::path& dir, unsigned threads) {
-  const Summary summary = summarize(results);
-  std::error_code ec;
-  fs::create_directories(dir, ec);
-  if (ec) throw InputError(dir.string(), "cannot create the output folder: " + ec.message());
-  // Each report goes to a temporary file as soon as it is rendered (memory
-  // holds one report at a time); the names are switched only when all are
-  // written, results.json last, so a failure leaves no report behind.
-  std::vector<std::pair<fs::path, fs::path>> staged;  // (temporary, final)
-  const fs::path json_path = dir / "results.json";
-  const auto reporters = ReporterRegistry::global().list();
-  const bool json_wanted = std::any_of(reporters.begin(), reporters.end(), [](const auto* entry) {
-    return entry->make(ParamValues{})->file_name() == "results.json";
-  });
-  auto write_json = [&] {
-    return write_temp(json_path, [&](std::ostream& out) { write_results_json(out, results, summary); });
-  };
-  // results.json, the longest to write, on a thread of its own when allowed.
-  std::future<fs::path> json_written;
-  if (json_wanted && threads > 1) json_written = std::async(std::launch::async, write_json);
-  try {
-    try {
-      for (const auto* entry : reporters) {
-        auto reporter = entry->make(ParamValues{});
-        if (reporter->file_name() == "results.json") continue;
-        const fs::path path = dir / reporter->file_name();
-        const std::string text = reporter->render(results, summary);
-        staged.emplace_back(write_temp(path, [&](std::ostream& out) { out << text; }), path);
-      }
-    } catch (...) {
-      if (json_written.valid()) try {
-          fs::remove(json_written.get(), ec);
-        } catch (...) {  // its own failure left no file; the first error is the one reported
-        }
-      throw;
-    }
-    if (json_wanted) staged.emplace_back(json_written.valid() ? json_written.get() : write_json(), json_path);
-  } catch (...) {
-    for (const auto& [temp, path] : staged) fs::remove(temp, ec);
-    throw;
-  }
-  std::vector<std::string> written;
-  for (std::size_t i = 0; i < staged.size(); ++i) {
-    try {
-      rename_over(staged[i].first, staged[i].second);
-    } catch (...) {
-      for (std::size_t k = i; k < staged.size(); ++k) fs::remove(staged[k].first, ec);
-      throw;
-    }
-    written.push_back(staged[i].second.string());
-  }
-  return written;
 }
 
 std::string write_shard_marker(const fs::path& dir, const json& header, std::size_t tasks) {
@@ -334,14 +169,14 @@ std::string write_shard_marker(const fs::path& dir, const json& header, std::siz
   return path.string();
 }
 
-void prepare_output_folder(const fs::path& dir) {
+void prepare_output_folder(const fs::path& dir, const std::vector<std::string>& outputs) {
   std::error_code ec;
   fs::create_directories(dir, ec);
   if (ec || !fs::is_directory(dir, ec))
     throw InputError(dir.string(), "cannot create the output folder: " +
                                        (ec ? ec.message() : std::string("a file of that name is in the way")));
   std::vector<std::string> names{kShardMarkerFile};
-  for (const auto* entry : ReporterRegistry::global().list()) names.push_back(entry->make(ParamValues{})->file_name());
+  names.insert(names.end(), outputs.begin(), outputs.end());
   for (const auto& name : names) {
     fs::remove(dir / name, ec);
     if (ec) throw InputError((dir / name).string(), "cannot remove the previous run's file: " + ec.message());

@@ -7,33 +7,6 @@
 
 namespace gapmark {
 
-nlohmann::json results_to_json(const ResultSet& results, const Summary& summary) {
-  nlohmann::json columns = nlohmann::json::array();
-  for (const auto& c : results.columns)
-    columns.push_back({{"name", c.name}, {"unit", c.unit}, {"direction", to_string(c.direction)},
-                       {"summary", c.summary}});
-  nlohmann::json trials = nlohmann::json::array();
-  for (const auto& t : results.trials) trials.push_back(trial_to_json(t, results.columns));
-  nlohmann::json warnings = nlohmann::json::array();
-  for (const auto& w : all_warnings(results, summary))
-    warnings.push_back({{"code", w.code}, {"where", w.where}, {"message", w.message}, {"hint", w.hint}});
-  nlohmann::json out = {{"format", "gapmark-results"},
-          {"schema_version", kResultsSchemaVersion},
-          {"context", results.context},
-          {"rank_by", results.rank_by},
-          {"alpha", results.alpha},
-          {"equivalence", results.equivalence},
-          {"series", results.series},
-          {"columns", columns},
-          {"trials", trials},
-          {"summary", summary_to_json(summary, results)},
-          {"verdict", verdict_to_json(summary.verdict)},
-          {"warnings", warnings},
-          {"timing", results.timing}};
-  if (!results.examples.is_null()) out["examples"] = results.examples;
-  return out;
-}
-
 ResultSet results_from_json(const nlohmann::json& j, const std::string& source) {
   ResultSet r;
   try {

@@ -1,7 +1,5 @@
 #include "gapmark/experiment/runner.hpp"
 
-#include "gapmark/experiment/examples.hpp"
-
 #include <algorithm>
 #include <chrono>
 #include <cmath>
@@ -318,10 +316,6 @@ ResultSet run_experiment(const ExperimentSpec& spec, const RunOptions& options) 
       results.trials.push_back(std::move(r));
     }
   }
-  // The example windows a folder run has.
-  results.examples =
-      build_examples(spec, data, summarize(results),
-                     ExampleOptions{.threads = std::max(1u, options.threads), .allow_external = true});
   nlohmann::json per_method = nlohmann::json::object();
   for (const auto& [m, s] : method_seconds) per_method[m] = s;
   results.timing = {{"wall_seconds", std::chrono::duration<double>(std::chrono::steady_clock::now() - started).count()},
@@ -384,10 +378,10 @@ nlohmann::json run_missing_tasks(const ExperimentSpec& spec, const RunOptions& o
     status.shard = scan.shard;
     for (std::size_t t : scan.done) done[t] = 1;
     status.resumed = scan.done.size();
-    prepare_output_folder(folder.dir);
+    prepare_output_folder(folder.dir, folder.outputs);
     writer.emplace(CheckpointWriter::resume(path, scan.valid_bytes));
   } else {
-    prepare_output_folder(folder.dir);
+    prepare_output_folder(folder.dir, folder.outputs);
     writer.emplace(CheckpointWriter::create(path, header));
   }
 
@@ -412,25 +406,12 @@ nlohmann::json run_missing_tasks(const ExperimentSpec& spec, const RunOptions& o
 
 }  // namespace
 
-FolderRunStatus run_into_folder(const ExperimentSpec& spec, const RunOptions& options, const FolderRunOptions& folder) {
-  const auto started = std::chrono::steady_clock::now();
+FolderRunStatus run_tasks_into_folder(const ExperimentSpec& spec, const RunOptions& options,
+                                      const FolderRunOptions& folder) {
   FolderRunStatus status;
   const nlohmann::json header = run_missing_tasks(spec, options, folder, status);
-  if (!status.complete()) return status;
-  if (!status.shard.whole()) {
+  if (status.complete() && !status.shard.whole())
     status.written.push_back(write_shard_marker(folder.dir, header, status.total));
-    return status;
-  }
-  if (folder.before_reports) folder.before_reports();
-  // The examples re-read the data from this spec's folder (not the one a
-  // resumed checkpoint recorded); its outside programs already ran in this run.
-  ResultSet results = merge_checkpoints(
-      {folder.dir}, MergeOptions{.threads = std::max(1u, options.threads), .spec = &spec, .allow_external = true});
-  results.timing["wall_seconds"] = std::chrono::duration<double>(std::chrono::steady_clock::now() - started).count();
-  results.timing["threads"] = std::max(1u, options.threads);
-  results.timing["resumed_tasks"] = status.resumed;
-  status.written = write_final_reports(results, folder.dir, std::max(1u, options.threads));
-  status.warnings = std::move(results.warnings);
   return status;
 }
 

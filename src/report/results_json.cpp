@@ -1,4 +1,5 @@
 // results.json: every trial, the summary, the context and the warnings.
+#include "gapmark/analysis/results_json.hpp"
 #include "gapmark/experiment/results_io.hpp"
 #include "gapmark/report/reporter.hpp"
 
@@ -7,7 +8,7 @@ namespace {
 
 class ResultsJson final : public Reporter {
 public:
-  std::string file_name() const override { return "results.json"; }
+  std::string file_name() const override { return kResultsFile; }
   std::string render(const ResultSet& results, const Summary& summary) const override {
     return results_to_json(results, summary).dump(1) + "\n";
   }

@@ -9,6 +9,7 @@
 
 #include "gapmark/analysis/summary.hpp"
 #include "gapmark/analysis/verdict.hpp"
+#include "gapmark/analysis/results_json.hpp"
 #include "gapmark/experiment/results_io.hpp"
 
 using namespace gapmark;

@@ -11,6 +11,7 @@
 #include "../reference_json.hpp"
 #include "gapmark/compare/compare.hpp"
 #include "gapmark/error.hpp"
+#include "gapmark/analysis/results_json.hpp"
 #include "gapmark/experiment/results_io.hpp"
 #include "gapmark/experiment/runner.hpp"
 #include "gapmark/fill/method.hpp"

@@ -3,6 +3,7 @@
 #include <cmath>
 #include <sstream>
 
+#include "gapmark/analysis/results_json.hpp"
 #include "gapmark/experiment/results_io.hpp"
 #include "gapmark/experiment/runner.hpp"
 #include "gapmark/analysis/summary.hpp"

@@ -8,7 +8,8 @@
 #include <fstream>
 #include <regex>
 
-#include "gapmark/experiment/examples.hpp"
+#include "gapmark/analysis/examples.hpp"
+#include "gapmark/analysis/results_json.hpp"
 #include "gapmark/experiment/results_io.hpp"
 #include "gapmark/experiment/runner.hpp"
 #include "gapmark/report/html_charts.hpp"
@@ -36,6 +37,7 @@ const Run& regression_run() {
     options.threads = 2;
     r.results = run_experiment(r.spec, options);
     r.summary = summarize(r.results);
+    r.results.examples = build_examples(r.spec, r.data, r.summary, {.threads = 2, .allow_external = true});
     return r;
   }();
   return run;

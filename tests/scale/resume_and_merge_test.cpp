@@ -10,9 +10,10 @@
 #include "gapmark/error.hpp"
 #include "gapmark/experiment/checkpoint.hpp"
 #include "gapmark/experiment/merge.hpp"
+#include "gapmark/analysis/results_json.hpp"
 #include "gapmark/experiment/results_io.hpp"
 #include "gapmark/experiment/runner.hpp"
-#include "gapmark/report/reporter.hpp"
+#include "gapmark/report/final_reports.hpp"
 #include "scale_helpers.hpp"
 
 using namespace gapmark;
@@ -70,8 +71,10 @@ TEST_CASE("a folder run equals the in-memory run, at any thread count") {
 
   RunOptions options;
   options.threads = 2;
-  const ResultSet memory = run_experiment(fx.spec, options);
-  write_reports(memory, (fx.root / "memory").string());
+  ResultSet memory = run_experiment(fx.spec, options);
+  const Summary memory_summary =
+      finish_results(memory, FinishOptions{.threads = 2, .spec = &fx.spec, .allow_external = true});
+  write_final_reports(memory, memory_summary, fx.root / "memory");
   CHECK(without_timing(fx.root / "memory/results.json") == without_timing(fx.root / "one/results.json"));
   for (const char* file : {"ranking.md", "ranking.csv", "methods.md"})
     CHECK_MESSAGE(read_file(fx.root / "memory" / file) == read_file(fx.root / "one" / file), file);
@@ -163,8 +166,9 @@ TEST_CASE("shards merged give the single run's results; merge refuses a wrong se
   }
   CHECK(tasks == 27);
   // Any order; the example windows read the data from the spec's folder.
-  const ResultSet merged = merge_checkpoints({shards[2], shards[0], shards[1]}, MergeOptions{.spec = &fx.spec});
-  write_final_reports(merged, fx.root / "merged");
+  ResultSet merged = merge_checkpoints({shards[2], shards[0], shards[1]}, MergeOptions{.spec = &fx.spec});
+  const Summary merged_summary = finish_results(merged, FinishOptions{.spec = &fx.spec});
+  write_final_reports(merged, merged_summary, fx.root / "merged");
   CHECK(without_timing(fx.root / "merged/results.json") == without_timing(fx.root / "whole/results.json"));
   for (const char* file : {"ranking.md", "ranking.csv", "methods.md"})
     CHECK_MESSAGE(read_file(fx.root / "merged" / file) == read_file(fx.root / "whole" / file), file);
@@ -214,9 +218,9 @@ TEST_CASE("results.json written piece by piece equals the reporter's text") {
   write_results_json(streamed_empty, empty, none);
   CHECK(streamed_empty.str() == results_to_json(empty, none).dump(1) + "\n");
 
-  // Every report file equals what write_reports writes.
-  write_final_reports(results, fx.root / "final");
-  write_reports(results, (fx.root / "plain").string());
+  // The same files whether results.json is written beside the others or after them.
+  write_final_reports(results, fx.root / "final", 2);
+  write_final_reports(results, summary, fx.root / "plain", 1);
   std::size_t files = 0;
   for (const auto& entry : fs::directory_iterator(fx.root / "plain")) {
     ++files;

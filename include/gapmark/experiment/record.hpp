@@ -72,7 +72,7 @@ struct ResultSet {
   double alpha = 0.05;
   double equivalence = kDefaultEquivalence;  ///< relative margin on the ranking metric
   nlohmann::json timing;               ///< wall-clock facts; comparisons ignore it
-  nlohmann::json examples;             ///< optional example windows (experiment/examples.hpp); null = none
+  nlohmann::json examples;             ///< optional example windows (analysis/examples.hpp); null = none
 
   std::size_t column_index(const std::string& name) const;  ///< InputError if absent
 };

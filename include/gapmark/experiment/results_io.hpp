@@ -1,5 +1,5 @@
 #pragma once
-// results.json: the versioned record of a run. Layout:
+// Reading results.json back (writing it: analysis/results_json.hpp). Layout:
 //   { "format": "gapmark-results", "schema_version": 1,
 //     "context": {tool, version, commit, seed, spec, spec_sha256, inputs[...]},
 //     "series": [...], "columns": [...], "trials": [...],
@@ -9,11 +9,12 @@
 #include <nlohmann/json.hpp>
 
 #include "gapmark/experiment/record.hpp"
-#include "gapmark/analysis/summary.hpp"
 
 namespace gapmark {
 
-nlohmann::json results_to_json(const ResultSet& results, const Summary& summary);
+/// The file name of a run's results.
+inline constexpr const char* kResultsFile = "results.json";
+
 /// Reads a results.json written by any run; errors name the file and field.
 ResultSet read_results(const std::filesystem::path& path);
 ResultSet results_from_json(const nlohmann::json& j, const std::string& source);

@@ -3,7 +3,7 @@
 // (seeded from its key), runs every method on the same mask, scores them,
 // and returns the records in canonical order -- in memory (run_experiment),
 // or streamed to a checkpoint in an output folder that can be resumed and
-// split across machines (run_into_folder).
+// split across machines (run_tasks_into_folder).
 #include <atomic>
 #include <cstddef>
 #include <filesystem>
@@ -95,10 +95,11 @@ std::size_t run_tasks(const ExperimentSpec& spec, const LoadedData& data, const 
 /// series, columns, rank_by, alpha.
 ResultSet results_frame(const ExperimentSpec& spec, const LoadedData& data);
 
-/// Runs the whole grid in memory and returns the records in canonical order.
+/// Runs the whole grid in memory and returns the records in canonical order
+/// (no example windows: finish_results draws them).
 ResultSet run_experiment(const ExperimentSpec& spec, const RunOptions& options = {});
 
-/// Where and how run_into_folder runs.
+/// Where and how run_tasks_into_folder (and run_into_folder) runs.
 struct FolderRunOptions {
   std::filesystem::path dir;     ///< output folder: checkpoint, then reports or shard marker
   bool resume = false;           ///< continue the checkpoint in `dir` instead of starting again
@@ -107,6 +108,9 @@ struct FolderRunOptions {
   /// read back and the reports written (which takes a while on large grids);
   /// may be empty.
   std::function<void()> before_reports;
+  /// The files a finished run writes in `dir`: those an earlier run left are
+  /// removed before this one starts (run_into_folder sets them).
+  std::vector<std::string> outputs;
 };
 
 struct FolderRunStatus {
@@ -119,16 +123,15 @@ struct FolderRunStatus {
   bool complete() const { return done == total; }
 };
 
-/// Runs an experiment into an output folder: each finished task is appended
-/// to the checkpoint at once (memory holds only the tasks in flight). When
-/// every task is done, a whole run reads the checkpoint back in task order
-/// and writes results.json and every report; a shard writes its marker
-/// instead (see merge.hpp). A resumed run refuses a checkpoint of another
-/// spec, other data or another build, and runs only the missing tasks; its
-/// results equal an uninterrupted run's byte for byte outside "timing".
-/// Report files and the shard marker from an earlier run in `dir` are
-/// removed first, so nothing in the folder looks complete until it is.
-FolderRunStatus run_into_folder(const ExperimentSpec& spec, const RunOptions& options,
-                                const FolderRunOptions& folder);
+/// Runs an experiment's tasks into an output folder: each finished task is
+/// appended to the checkpoint at once (memory holds only the tasks in
+/// flight). A shard that is done writes its marker (see merge.hpp); a whole
+/// run stops there, and run_into_folder (report/final_reports.hpp) reads the
+/// checkpoint back and writes the outputs. A resumed run refuses a
+/// checkpoint of another spec, other data or another build, and runs only
+/// the missing tasks. The files `folder.outputs` and the shard marker from an
+/// earlier run in `dir` are removed first.
+FolderRunStatus run_tasks_into_folder(const ExperimentSpec& spec, const RunOptions& options,
+                                      const FolderRunOptions& folder);
 
 }  // namespace gapmark

@@ -21,8 +21,4 @@ public:
 
 using ReporterRegistry = Registry<Reporter>;
 
-/// Renders every listed reporter into `dir`, each file written atomically.
-/// Returns the paths written.
-std::vector<std::string> write_reports(const ResultSet& results, const std::string& dir);
-
 }  // namespace gapmark

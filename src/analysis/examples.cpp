@@ -1,4 +1,4 @@
-#include "gapmark/experiment/examples.hpp"
+#include "gapmark/analysis/examples.hpp"
 
 #include <algorithm>
 #include <cmath>
@@ -153,7 +153,8 @@ nlohmann::json build_examples(const ExperimentSpec& spec, const LoadedData& data
   return {{"window", options.window}, {"top", options.top}, {"series", list}};
 }
 
-std::string attach_examples(ResultSet& results, const ExperimentSpec& spec, const ExampleOptions& options) {
+std::string attach_examples(ResultSet& results, const Summary& summary, const ExperimentSpec& spec,
+                            const ExampleOptions& options) {
   results.examples = nullptr;
   LoadedData data;
   try {
@@ -165,19 +166,8 @@ std::string attach_examples(ResultSet& results, const ExperimentSpec& spec, cons
   for (std::size_t d = 0; d < data.input_sha256.size(); ++d)
     if (d >= recorded.size() || recorded[d].value("sha256", "") != data.input_sha256[d])
       return "the data file " + spec.data[d].label + " changed since the run (SHA-256 differs)";
-  results.examples = build_examples(spec, data, summarize(results), options);
+  results.examples = build_examples(spec, data, summary, options);
   return {};
-}
-
-std::string attach_examples(ResultSet& results, const std::filesystem::path& spec_dir, const ExampleOptions& options) {
-  results.examples = nullptr;
-  if (!results.context.contains("spec")) return "the results do not hold their spec";
-  try {
-    const ExperimentSpec spec = parse_spec(results.context.at("spec").dump(), "the run's spec", spec_dir);
-    return attach_examples(results, spec, options);
-  } catch (const InputError& e) {
-    return std::string("the run's spec cannot be used again: ") + e.what();
-  }
 }
 
 }  // namespace gapmark

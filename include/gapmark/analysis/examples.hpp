@@ -15,7 +15,6 @@
 //                                 "filled": [value at masked points, null elsewhere]} ],
 //                   "acf": {"lags", "truth": [r_1..r_L], "methods": [{"method", "values"}]} } ] }
 #include <cstddef>
-#include <filesystem>
 #include <string>
 #include <nlohmann/json.hpp>
 
@@ -43,15 +42,11 @@ nlohmann::json build_examples(const ExperimentSpec& spec, const LoadedData& data
                               const ExampleOptions& options = {});
 
 /// Reloads the spec's data, checks that it is the data the run used (the
-/// SHA-256 of each input in results' context) and sets results.examples.
-/// Returns an empty string, or why no examples could be made (the data
-/// changed or is gone); results.examples is then left null.
-std::string attach_examples(ResultSet& results, const ExperimentSpec& spec, const ExampleOptions& options = {});
-
-/// The same for a run known only by its results and the folder its spec was
-/// read from (as recorded in a checkpoint): the spec is re-read from results'
-/// context with paths resolved against `spec_dir`.
-std::string attach_examples(ResultSet& results, const std::filesystem::path& spec_dir,
+/// SHA-256 of each input in results' context) and sets results.examples
+/// from `summary` (the results' own). Returns an empty string, or why no
+/// examples could be made (the data changed or is gone); results.examples
+/// is then left null.
+std::string attach_examples(ResultSet& results, const Summary& summary, const ExperimentSpec& spec,
                             const ExampleOptions& options = {});
 
 }  // namespace gapmark
