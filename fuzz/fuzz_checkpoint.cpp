@@ -57,7 +57,7 @@ extern "C" int LLVMFuzzerTestOneInput(const std::uint8_t* data, std::size_t size
   try {
     gapmark::RunOptions options;
     options.threads = 1;
-    const auto status = gapmark::run_into_folder(fx.spec, options, gapmark::FolderRunOptions{fx.out, true, {}, {}});
+    const auto status = gapmark::run_into_folder(fx.spec, options, gapmark::FolderRunOptions{fx.out, true, {}, {}, {}});
     if (!status.complete()) __builtin_trap();  // nothing stops this run
   } catch (const gapmark::InputError&) {
   }

@@ -2,7 +2,7 @@
 // `profile` (what is missing, and how) and `regularize` (rows onto a grid).
 #include "bindings.hpp"
 #include "gapmark/data/profile.hpp"
-#include "gapmark/data/raw_table.hpp"
+#include "gapmark/raw_table.hpp"
 #include "gapmark/data/regularize.hpp"
 #include "gapmark/error.hpp"
 #include "gapmark/table_io.hpp"

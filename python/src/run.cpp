@@ -9,6 +9,7 @@
 #include <thread>
 
 #include "bindings.hpp"
+#include "gapmark/analysis/results_json.hpp"
 #include "gapmark/analysis/summary.hpp"
 #include "gapmark/error.hpp"
 #include "gapmark/experiment/merge.hpp"
@@ -16,6 +17,7 @@
 #include "gapmark/experiment/runner.hpp"
 #include "gapmark/experiment/spec.hpp"
 #include "gapmark/experiment/spec_safety.hpp"
+#include "gapmark/report/final_reports.hpp"
 #include "gapmark/text_safety.hpp"
 
 namespace gapmark::python {
@@ -27,6 +29,7 @@ struct RunResults {
   Summary summary;
 
   explicit RunResults(ResultSet r) : results(std::move(r)), summary(summarize(results)) {}
+  RunResults(ResultSet r, Summary s) : results(std::move(r)), summary(std::move(s)) {}
 
   /// results.json as the command line writes it.
   std::string json_text() const {
@@ -43,7 +46,7 @@ struct RunResults {
     if (!force && fs::is_directory(folder) && !fs::is_empty(folder))
       throw InputError(dir, "the folder is not empty; give force=True to replace the reports in it");
     prepare_output_folder(folder);
-    return write_final_reports(results, folder, std::max(1u, threads));
+    return write_final_reports(results, summary, folder, std::max(1u, threads));
   }
 };
 
@@ -90,13 +93,17 @@ std::shared_ptr<RunResults> run_spec(const std::string& text, const std::string&
   options.progress = progress_caller(progress);
   ResultSet results;
   interrupted() = false;
+  Summary summary;
   {
     py::gil_scoped_release release;  // built-in methods run on every thread; Python methods take the GIL
     results = run_experiment(spec, options);
+    // the summary once, and the example windows drawn from it, as the command line's end of a run
+    if (!interrupted())
+      summary = finish_results(results, FinishOptions{.threads = options.threads, .spec = &spec, .allow_external = true});
   }
   options.progress = {};
   raise_if_interrupted();  // no results with trials failed by the interruption
-  return std::make_shared<RunResults>(std::move(results));
+  return std::make_shared<RunResults>(std::move(results), std::move(summary));
 }
 
 std::shared_ptr<RunResults> load(const std::string& path) {

@@ -150,7 +150,7 @@ void add_run(CLI::App& app, Action& action) {
       const OutputDir folder_made(spec.output);
       const FolderLock lock(spec.output);  // one run per folder, held until the reports are written
       remove_stale_temp_files(spec.output);
-      FolderRunOptions folder{spec.output, resume, std::nullopt, {}};
+      FolderRunOptions folder{spec.output, resume, std::nullopt, {}, {}};
       if (!o->quiet)
         folder.before_reports = [&spec] {
           std::cerr << "all tasks done; summarising and writing the reports to " << spec.output.string() << "\n";

@@ -10,6 +10,7 @@
 #include "gapmark/analysis/results_json.hpp"
 #include "gapmark/error.hpp"
 #include "gapmark/experiment/merge.hpp"
+#include "gapmark/experiment/results_io.hpp"
 #include "gapmark/experiment/spec_safety.hpp"
 #include "gapmark/output_file.hpp"
 #include "gapmark/report/reporter.hpp"

@@ -12,6 +12,7 @@
 #include "gapmark/error.hpp"
 #include "gapmark/experiment/checkpoint.hpp"
 #include "gapmark/experiment/runner.hpp"
+#include "gapmark/report/final_reports.hpp"
 #include "scale_helpers.hpp"
 
 using namespace gapmark;
