@@ -7,6 +7,7 @@
 #include "gapmark/json_number.hpp"
 #include "gapmark/error.hpp"
 #include "gapmark/fill/checked_fill.hpp"
+#include "gapmark/interrupted.hpp"
 #include "gapmark/parallel_for.hpp"
 #include "gapmark/stats/acf.hpp"
 
@@ -116,7 +117,12 @@ nlohmann::json example_for(const ExperimentSpec& spec, const LoadedData& data, c
       methods.push_back(entry);
       continue;
     }
-    const CheckedFill fill = checked_fill(*method, fill_request, mask);
+    CheckedFill fill;
+    try {
+      fill = checked_fill(*method, fill_request, mask);
+    } catch (const Interrupted& e) {  // the user stopped an outside program: this window shows no fill
+      fill.failure = e.what();
+    }
     if (fill.failed()) {
       entry["status"] = trial_status_name(TrialStatus::Failed);
       entry["reason"] = run_failure_reason(fill.failure, fill.need);

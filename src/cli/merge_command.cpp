@@ -7,6 +7,7 @@
 
 #include "commands.hpp"
 #include "gapmark/experiment/merge.hpp"
+#include "gapmark/interrupted.hpp"
 #include "gapmark/report/final_reports.hpp"
 #include "output_rules.hpp"
 #include "stop_signals.hpp"
@@ -52,9 +53,15 @@ void add_merge(CLI::App& app, Action& action) {
       if (spec && o->allow_external && !external_commands(*spec).empty())
         catch_stop_signals(StoppedWork::merge_with_programs);
       ResultSet results = merge_checkpoints(inputs, MergeOptions{.spec = spec ? &*spec : nullptr});
-      const Summary summary = finish_results(
-          results, FinishOptions{.threads = threads, .spec = spec ? &*spec : nullptr, .allow_external = o->allow_external});
-      if (stop_flag().load()) {
+      Summary summary;
+      bool stopped = false;
+      try {
+        summary = finish_results(
+            results, FinishOptions{.threads = threads, .spec = spec ? &*spec : nullptr, .allow_external = o->allow_external});
+      } catch (const Interrupted&) {
+        stopped = true;  // an outside program drawing an example window was stopped
+      }
+      if (stopped || stop_flag().load()) {
         std::cerr << "interrupted: nothing written to " << o->out << "; run the merge again\n";
         return stopped_exit_status();
       }
