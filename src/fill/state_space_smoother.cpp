@@ -176,7 +176,7 @@ struct Kernel {
       if (rec) {
         rec->za[i] = za;
         rec->zpz[i] = zps;
-        rec->m_star.col(static_cast<Eigen::Index>(i)) = ms;
+        std::copy_n(ms.data(), m, rec->m_star.col(static_cast<Eigen::Index>(i)).data());
       }
       if (diffuse) {
         times_design(p_inf, mi);

@@ -109,6 +109,9 @@ public:
   /// Z a: the level, plus the current seasonal effect with a period.
   template <class D>
   double signal_of(const Eigen::MatrixBase<D>& a) const {
+    // a state of one value is the level alone (said at compile time, so that
+    // the compiler sees no read past it)
+    if constexpr (D::SizeAtCompileTime == 1) return a(0);
     if (seasonal_ == 0) return a(0);
     if (harmonics_ == 0) return a(0) + a(seasonal_start());
     double sum = a(0);
