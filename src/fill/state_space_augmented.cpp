@@ -23,9 +23,11 @@
 // collinearity is confined to S, which is solved once with all the data.
 #include <cmath>
 #include <limits>
+#include <stdexcept>
 
 #include "gapmark/error.hpp"
 #include "gapmark/fill/state_space.hpp"
+#include "gapmark/fill/state_space_level.hpp"
 
 namespace gapmark::state_space {
 namespace {
@@ -302,8 +304,8 @@ std::vector<std::vector<double>> smoothed_signal_means(const StructuralModel& mo
   return Augmented(model, variances).means(ys);
 }
 
-SmoothedSignal smooth_signal(const StructuralModel& model, std::span<const double> y,
-                             std::span<const double> variances) {
+SmoothedSignal smooth_signal_general(const StructuralModel& model, std::span<const double> y,
+                                     std::span<const double> variances) {
   SmoothedSignal out;
   out.likelihood = filter_likelihood_general(model, y, variances);
   if (!out.likelihood.finite) throw MethodFailure("the Kalman filter met a non-positive or non-finite variance");
@@ -315,6 +317,15 @@ SmoothedSignal smooth_signal(const StructuralModel& model, std::span<const doubl
   out.mean = std::move(moments.mean);
   out.variance = std::move(moments.variance);
   return out;
+}
+
+SmoothedSignal smooth_signal(const StructuralModel& model, std::span<const double> y,
+                             std::span<const double> variances) {
+  if (model.state_dim() == 1) {
+    if (variances.size() != 2) throw std::invalid_argument("the level model takes 2 variances");
+    return level::smooth(y, variances);
+  }
+  return smooth_signal_general(model, y, variances);
 }
 
 }  // namespace gapmark::state_space

@@ -162,7 +162,8 @@ struct LikelihoodParts {
 LikelihoodParts filter_likelihood(const StructuralModel& model, std::span<const double> y,
                                   std::span<const double> variances);
 /// The same pass through the general matrix step at every time (no scalar
-/// shortcuts): the likelihood that smooth_signal reports.
+/// shortcuts): the likelihood that smooth_signal_general reports (the same
+/// bits as filter_likelihood, which smooth_signal reports for the local level).
 LikelihoodParts filter_likelihood_general(const StructuralModel& model, std::span<const double> y,
                                           std::span<const double> variances);
 
@@ -170,7 +171,8 @@ LikelihoodParts filter_likelihood_general(const StructuralModel& model, std::spa
 /// (including before the first and after the last observation), by the
 /// augmented filter and smoother (de Jong 1991; Durbin & Koopman 2012, sec.
 /// 5.7), which keeps its digits where the first observations barely
-/// separate the states; with the diffuse log-likelihood of filter_likelihood_general.
+/// separate the states (for the local level, the same in scalars:
+/// state_space_level.hpp); with the diffuse log-likelihood of the filter.
 struct SmoothedSignal {
   std::vector<double> mean;
   std::vector<double> variance;
@@ -180,6 +182,10 @@ struct SmoothedSignal {
 /// few to remove the flat prior (the signal is then not identified).
 SmoothedSignal smooth_signal(const StructuralModel& model, std::span<const double> y,
                              std::span<const double> variances);
+/// The same through the general matrix filter and smoother whatever the
+/// model (smooth_signal takes scalar paths for the local level): for checks.
+SmoothedSignal smooth_signal_general(const StructuralModel& model, std::span<const double> y,
+                                     std::span<const double> variances);
 
 /// The smoothed signal's mean alone for several series that share one
 /// pattern of missing values (the same pass as smooth_signal, with the
