@@ -2,6 +2,7 @@
 // arima_model.hpp for the model and the treatment of the diffuse part).
 #include "gapmark/fill/arima_model.hpp"
 
+#include <algorithm>
 #include <cmath>
 #include <numbers>
 #include <stdexcept>
@@ -86,39 +87,50 @@ StateSpace::StateSpace(const Polynomials& poly) {
   rr_ = rvec * rvec.transpose();
 }
 
+// Both transitions work column by column on contiguous storage, each value
+// computed by the same operations in the same order as the row form in the
+// comments (so the results do not depend on the layout).
+
 void StateSpace::transition(Eigen::Ref<Eigen::MatrixXd> x) const {
-  const Eigen::Index r = static_cast<Eigen::Index>(r_), nd = static_cast<Eigen::Index>(nd_);
-  thread_local Eigen::RowVectorXd first, lag0;  // scratch, reused across calls
-  first = x.row(0);
-  if (nd > 0) {
-    lag0 = first;
-    for (Eigen::Index j = 0; j < nd; ++j)
-      if (delta_[static_cast<std::size_t>(j)] != 0) lag0 += delta_[static_cast<std::size_t>(j)] * x.row(r + j);
-    for (Eigen::Index j = nd - 1; j >= 1; --j) x.row(r + j) = x.row(r + j - 1);
-    x.row(r) = lag0;
+  // row r: x_0 + sum_j delta_j x_{r+j}; rows r+j: x_{r+j-1}; rows i < r-1:
+  // phi_i x_0 + x_{i+1}; row r-1: phi_{r-1} x_0.
+  const std::size_t r = r_, nd = nd_;
+  for (Eigen::Index c = 0; c < x.cols(); ++c) {
+    double* col = x.col(c).data();
+    const double first = col[0];
+    if (nd > 0) {
+      double lag0 = first;
+      for (std::size_t j = 0; j < nd; ++j)
+        if (delta_[j] != 0) lag0 += delta_[j] * col[r + j];
+      for (std::size_t j = nd - 1; j >= 1; --j) col[r + j] = col[r + j - 1];
+      col[r] = lag0;
+    }
+    for (std::size_t i = 0; i + 1 < r; ++i) col[i] = phi_[i] * first + col[i + 1];
+    col[r - 1] = phi_[r - 1] * first;
   }
-  for (Eigen::Index i = 0; i + 1 < r; ++i) x.row(i) = phi_[static_cast<std::size_t>(i)] * first + x.row(i + 1);
-  x.row(r - 1) = phi_[static_cast<std::size_t>(r - 1)] * first;
 }
 
 void StateSpace::transition_transposed(Eigen::Ref<Eigen::MatrixXd> x) const {
-  const Eigen::Index r = static_cast<Eigen::Index>(r_), nd = static_cast<Eigen::Index>(nd_);
-  thread_local Eigen::RowVectorXd first, lag0;  // scratch, reused across calls
-  first = phi_[0] * x.row(0);
-  for (Eigen::Index i = 1; i < r; ++i)
-    if (phi_[static_cast<std::size_t>(i)] != 0) first += phi_[static_cast<std::size_t>(i)] * x.row(i);
-  if (nd > 0) {
-    first += x.row(r);
-    lag0 = x.row(r);
-    for (Eigen::Index j = 0; j < nd; ++j) {
-      const double dj = delta_[static_cast<std::size_t>(j)];
-      if (j + 1 < nd) x.row(r + j) = x.row(r + j + 1);
-      else x.row(r + j).setZero();
-      if (dj != 0) x.row(r + j) += dj * lag0;
+  // row 0: sum_i phi_i x_i (+ x_r); rows k = 1..r-1: x_{k-1}; rows r+j:
+  // x_{r+j+1} (0 for the last) + delta_j x_r.
+  const std::size_t r = r_, nd = nd_;
+  for (Eigen::Index c = 0; c < x.cols(); ++c) {
+    double* col = x.col(c).data();
+    double first = phi_[0] * col[0];
+    for (std::size_t i = 1; i < r; ++i)
+      if (phi_[i] != 0) first += phi_[i] * col[i];
+    if (nd > 0) {
+      first += col[r];
+      const double lag0 = col[r];
+      for (std::size_t j = 0; j < nd; ++j) {
+        const double dj = delta_[j];
+        col[r + j] = j + 1 < nd ? col[r + j + 1] : 0.0;
+        if (dj != 0) col[r + j] += dj * lag0;
+      }
     }
+    for (std::size_t k = r - 1; k >= 1; --k) col[k] = col[k - 1];
+    col[0] = first;
   }
-  for (Eigen::Index k = r - 1; k >= 1; --k) x.row(k) = x.row(k - 1);
-  x.row(0) = first;
 }
 
 double StateSpace::design(const Eigen::Ref<const Eigen::VectorXd>& x) const {
@@ -174,6 +186,25 @@ struct Pass {
   Eigen::MatrixXd s_inv;    ///< inverse of the diffuse block of s_full (sigma^2 units)
 };
 
+/// p <- p' for a square p, by swaps (small matrices: no blocking).
+void transpose_square(Eigen::MatrixXd& p) {
+  const Eigen::Index m = p.rows();
+  for (Eigen::Index j = 1; j < m; ++j)
+    for (Eigen::Index i = 0; i < j; ++i) std::swap(p(i, j), p(j, i));
+}
+
+/// Whether p moved from `before` by at most 1e-13 of its largest magnitude.
+bool unchanged(const Eigen::MatrixXd& p, const Eigen::MatrixXd& before) {
+  double moved = 0, largest = 0;
+  const double* a = p.data();
+  const double* b = before.data();
+  for (Eigen::Index i = 0; i < p.size(); ++i) {
+    moved = std::max(moved, std::abs(a[i] - b[i]));
+    largest = std::max(largest, std::abs(a[i]));
+  }
+  return moved <= 1e-13 * largest;
+}
+
 /// Columns: 0 the data; 1..k the regressor; then one per diffuse starting value.
 Pass run(const StateSpace& model, std::span<const double> y, std::span<const double> regressor, bool keep) {
   const std::size_t n = y.size();
@@ -189,8 +220,9 @@ Pass run(const StateSpace& model, std::span<const double> y, std::span<const dou
   for (Eigen::Index j = 0; j < nd; ++j) a(r + j, 1 + k + j) = -1.0;
   Eigen::MatrixXd p = model.initial_covariance();
   Eigen::MatrixXd s_full = Eigen::MatrixXd::Zero(cols, cols);
-  Eigen::RowVectorXd data(cols), v(cols), za(cols);
+  Eigen::RowVectorXd data(cols), v(cols), za(cols), v_over_f(cols);
   Eigen::VectorXd mvec(m);
+  Eigen::MatrixXd outer(cols, cols), p_outer(m, m);  // products formed here, not in temporaries
   double sum_log_f = 0;
   if (keep) pass.steps.resize(n);
 
@@ -217,10 +249,12 @@ Pass run(const StateSpace& model, std::span<const double> y, std::span<const dou
       data(0) = y[t];
       if (k) data(1) = regressor[t];
       v = data - za;
-      s_full.noalias() += v.transpose() * v / f;
+      outer.noalias() = v.transpose() * v;
+      s_full += outer / f;
       sum_log_f += std::log(f);
       ++lik.observed;
-      a.noalias() += mvec * (v / f);
+      v_over_f = v / f;
+      a.noalias() += mvec * v_over_f;
     }
     if (keep) {
       Step& st = pass.steps[t];
@@ -234,13 +268,14 @@ Pass run(const StateSpace& model, std::span<const double> y, std::span<const dou
     if (steady) continue;
     if (observed) {
       p_before = p;
-      p.noalias() -= mvec * mvec.transpose() / f;
+      p_outer.noalias() = mvec * mvec.transpose();
+      p -= p_outer / f;
     }
     model.transition(p);
-    p.transposeInPlace();
+    transpose_square(p);
     model.transition(p);
     p.topLeftCorner(r, r) += model.disturbance();
-    if (observed) steady = (p - p_before).cwiseAbs().maxCoeff() <= 1e-13 * p.cwiseAbs().maxCoeff();
+    if (observed) steady = unchanged(p, p_before);
   }
 
   lik.effective = lik.observed >= static_cast<std::size_t>(nd) ? lik.observed - static_cast<std::size_t>(nd) : 0;
