@@ -1,6 +1,7 @@
 // Maximum-likelihood ARIMA fit (see arima_fit.hpp).
 #include "gapmark/fill/arima_fit.hpp"
 
+#include <algorithm>
 #include <cmath>
 #include <limits>
 
@@ -25,6 +26,7 @@ std::vector<double> coefficients_from_partials(std::span<const double> partials)
 namespace {
 
 constexpr double kBound = 7.0;  // |x| limit: tanh(7) = 0.9999983
+constexpr double kInitialStep = 0.2;  // BOBYQA's first steps from zero
 
 Coefficients coefficients_of(const Order& o, const std::vector<double>& x) {
   std::size_t at = 0;
@@ -62,7 +64,30 @@ double objective(unsigned n, const double* x, double* grad, void* data) {
 
 }  // namespace
 
+std::vector<double> warm_start(const Fit& from, const Order& to) {
+  const Order& o = from.order;
+  std::vector<double> x;
+  std::size_t at = 0;
+  auto block = [&](int had, int wanted) {
+    for (int i = 0; i < wanted; ++i)
+      x.push_back(i < had && at + static_cast<std::size_t>(i) < from.parameters.size()
+                      ? from.parameters[at + static_cast<std::size_t>(i)]
+                      : 0.0);
+    at += static_cast<std::size_t>(had);
+  };
+  block(o.p, to.p);
+  block(o.q, to.q);
+  block(o.seasonal_p, to.seasonal_p);
+  block(o.seasonal_q, to.seasonal_q);
+  return x;
+}
+
 Fit fit(const Order& order, std::span<const double> y, const FitTolerance& tolerance) {
+  return fit_from(order, y, {}, kInitialStep, tolerance);
+}
+
+Fit fit_from(const Order& order, std::span<const double> y, std::span<const double> start, double step,
+             const FitTolerance& tolerance) {
   state_space::Standardised data = state_space::standardise(y);
   if (order.d + order.seasonal_d == 0 && !order.constant && data.scale > 0) {
     // a zero-mean model: scaled, not centred (differencing would remove a centre)
@@ -79,6 +104,7 @@ Fit fit(const Order& order, std::span<const double> y, const FitTolerance& toler
 
   Objective obj{&order, data.z, regressor};
   std::vector<double> x(order.arma_count(), 0.0);
+  for (std::size_t i = 0; i < x.size() && i < start.size(); ++i) x[i] = std::clamp(start[i], -kBound, kBound);
   Fit out;
   out.order = order;
   if (!x.empty()) {
@@ -89,7 +115,7 @@ Fit fit(const Order& order, std::span<const double> y, const FitTolerance& toler
     opt.set_xtol_abs(tolerance.x);
     opt.set_ftol_abs(tolerance.log_likelihood);
     opt.set_maxeval(static_cast<int>(tolerance.max_evaluations));
-    opt.set_initial_step(0.2);
+    opt.set_initial_step(step);
     double value = 0;
     try {
       const nlopt::result res = opt.optimize(x, value);
@@ -101,6 +127,7 @@ Fit fit(const Order& order, std::span<const double> y, const FitTolerance& toler
       if (std::abs(v) >= kBound - 1e-3) out.at_bound = true;
   }
   out.coefficients = coefficients_of(order, x);
+  out.parameters = x;
   const StateSpace model(expand(order, out.coefficients));
   const Likelihood lik = likelihood(model, data.z, regressor);
   out.evaluations = obj.evaluations + 1;

@@ -18,6 +18,10 @@ namespace {
 constexpr double kNaN = std::numeric_limits<double>::quiet_NaN();
 constexpr double kKpssCritical5 = 0.463;    // Kwiatkowski et al. (1992), Table 1, level, 5%
 constexpr double kStrengthThreshold = 0.64;
+/// BOBYQA's first steps for a neighbour started from the current model's end
+/// point, and for the final fit started from the chosen model's screening fit.
+constexpr double kNeighbourStep = 0.1;
+constexpr double kRefitStep = 0.02;
 
 std::vector<double> difference(std::span<const double> x, std::size_t lag) {
   std::vector<double> out(x.size(), kNaN);
@@ -110,7 +114,8 @@ SearchResult search_order(std::span<const double> y, std::size_t period, const S
   std::map<Key, double> tried;
   bool have_best = false;
   Fit best;
-  auto try_model = [&](int p, int q, int sp, int sq, bool constant) -> bool {
+  // parent: the current best, whose end point a neighbour starts from
+  auto try_model = [&](int p, int q, int sp, int sq, bool constant, const Fit* parent) -> bool {
     if (p < 0 || q < 0 || sp < 0 || sq < 0 || p > bounds.max_p || q > bounds.max_q) return false;
     if (!seasonal && (sp > 0 || sq > 0)) return false;
     if (sp > bounds.max_seasonal_p || sq > bounds.max_seasonal_q) return false;
@@ -130,7 +135,8 @@ SearchResult search_order(std::span<const double> y, std::size_t period, const S
     double aicc = std::numeric_limits<double>::infinity();
     ++result.models;
     try {
-      Fit f = fit(o, y, kScreeningTolerance);
+      Fit f = parent ? fit_from(o, y, warm_start(*parent, o), kNeighbourStep, kScreeningTolerance)
+                     : fit(o, y, kScreeningTolerance);
       result.evaluations += f.evaluations;
       // a fit on the edge of stationarity or invertibility is not a candidate
       if (!f.at_bound && std::isfinite(f.aicc)) aicc = f.aicc;
@@ -149,16 +155,17 @@ SearchResult search_order(std::span<const double> y, std::size_t period, const S
   const bool with_constant = d + big_d <= 1;
   const int s1 = seasonal ? 1 : 0;
   try_model(std::min(2, bounds.max_p), std::min(2, bounds.max_q), std::min(s1, bounds.max_seasonal_p),
-            std::min(s1, bounds.max_seasonal_q), with_constant);
-  try_model(0, 0, 0, 0, with_constant);
-  try_model(std::min(1, bounds.max_p), 0, std::min(s1, bounds.max_seasonal_p), 0, with_constant);
-  try_model(0, std::min(1, bounds.max_q), 0, std::min(s1, bounds.max_seasonal_q), with_constant);
-  if (with_constant) try_model(0, 0, 0, 0, false);
+            std::min(s1, bounds.max_seasonal_q), with_constant, nullptr);
+  try_model(0, 0, 0, 0, with_constant, nullptr);
+  try_model(std::min(1, bounds.max_p), 0, std::min(s1, bounds.max_seasonal_p), 0, with_constant, nullptr);
+  try_model(0, std::min(1, bounds.max_q), 0, std::min(s1, bounds.max_seasonal_q), with_constant, nullptr);
+  if (with_constant) try_model(0, 0, 0, 0, false, nullptr);
 
   bool improved = have_best;
   while (improved) {
     improved = false;
-    const Order c = best.order;
+    const Fit current = best;
+    const Order c = current.order;
     const int p = c.p, q = c.q, sp = c.seasonal_p, sq = c.seasonal_q;
     const bool k = c.constant;
     const std::vector<std::tuple<int, int, int, int, bool>> moves{
@@ -168,13 +175,14 @@ SearchResult search_order(std::span<const double> y, std::size_t period, const S
         {p - 1, q - 1, sp, sq, k}, {p + 1, q + 1, sp, sq, k},
         {p, q, sp, sq, !k}};
     for (const auto& [a, b, e, f, g] : moves)
-      if (try_model(a, b, e, f, g)) {
+      if (try_model(a, b, e, f, g, &current)) {
         improved = true;
         break;
       }
   }
   if (!have_best) throw MethodFailure("no ARIMA model in the search could be fitted");
-  result.best = fit(best.order, y);  // the chosen order, to full precision
+  // the chosen order to full precision, from where its screening fit ended
+  result.best = fit_from(best.order, y, best.parameters, kRefitStep);
   result.evaluations += result.best.evaluations;
   return result;
 }

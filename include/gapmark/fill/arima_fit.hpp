@@ -8,9 +8,10 @@
 // r_k = tanh(x_k) in (-1, 1), turned into coefficients by the Durbin-Levinson
 // recursion (Barndorff-Nielsen & Schou 1973; Jones 1980; Monahan 1984 for
 // the MA side), so every x gives a stationary AR and an invertible MA part.
-// The x are searched by BOBYQA (NLopt) from zero, within |x| <= 7 (|r| below
-// 0.999998); a fit whose x reaches that bound lies on the edge of
-// stationarity or invertibility and says so (at_bound).
+// The x are searched by BOBYQA (NLopt) from zero (or from a neighbouring
+// model's end point, fit_from), within |x| <= 7 (|r| below 0.999998); a fit
+// whose x reaches that bound lies on the edge of stationarity or
+// invertibility and says so (at_bound).
 #include <cstddef>
 #include <span>
 #include <string>
@@ -32,6 +33,9 @@ struct Fit {
   bool converged = true;         ///< the optimiser stopped on its tolerances, not on its budget
   bool at_bound = false;         ///< a partial autocorrelation ended at the search bound
   double centre = 0, scale = 1;  ///< the standardisation used internally
+  /// The searched parameters x (partial autocorrelations tanh(x): AR, MA,
+  /// seasonal AR, seasonal MA blocks in turn), for a warm start.
+  std::vector<double> parameters;
 };
 
 /// Partial autocorrelations -> coefficients of 1 - phi_1 B - ... (Durbin-Levinson).
@@ -49,6 +53,16 @@ inline constexpr FitTolerance kScreeningTolerance{1e-3, 1e-4, 300};
 /// Fits `order` to `y` (NaN = missing). Throws MethodFailure when the data
 /// are too few for the order or the likelihood cannot be evaluated.
 Fit fit(const Order& order, std::span<const double> y, const FitTolerance& tolerance = {});
+/// The same search started from `start` (one x per ARMA coefficient, as in
+/// Fit::parameters; clamped to the bounds) rather than from zero, with
+/// initial steps of `step`.
+Fit fit_from(const Order& order, std::span<const double> y, std::span<const double> start, double step,
+             const FitTolerance& tolerance = {});
+/// The parameters of `to` that start where the fit `from` ended: each block
+/// of partial autocorrelations keeps its values, truncated or padded with
+/// zeros (a zero partial adds nothing, so a larger order starts at exactly
+/// the smaller model's likelihood).
+std::vector<double> warm_start(const Fit& from, const Order& to);
 
 /// The smoothed values and variances of `y` under a fit (data units; a
 /// variance that is no normal double in data units is NaN).

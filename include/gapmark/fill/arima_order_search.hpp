@@ -17,6 +17,9 @@
 //     Q together, one up or down; the constant in or out. The first
 //     neighbour with a lower AICc becomes the current model and step 4
 //     repeats, until no neighbour improves or the model budget is spent.
+//     Each neighbour's fit starts where the current model's ended (its
+//     partial autocorrelations kept, a new one at zero: see warm_start),
+//     and the chosen order's final, tight fit where its screening fit ended.
 // Missing values: the tests of steps 1-2 use the observed values only
 // (differences across a gap are missing; the KPSS sums run over the
 // remaining differences as if consecutive); the fits of steps 3-4 are exact.
