@@ -27,6 +27,10 @@ struct ParamSpec {
   std::string help;
 };
 
+/// A Choice parameter: one of `choices`, `default_value` when not given.
+ParamSpec choice_param(std::string name, std::string default_value, std::vector<std::string> choices,
+                       std::string help);
+
 /// A call as written: a name and its key=value arguments in written order.
 struct CallSpec {
   std::string name;

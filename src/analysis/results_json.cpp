@@ -8,13 +8,18 @@
 
 namespace gapmark {
 
-nlohmann::json results_to_json(const ResultSet& results, const Summary& summary) {
+namespace {
+
+/// The document; with `with_trials` false its "trials" member is an empty
+/// array (write_results_json streams them in its place).
+nlohmann::json results_document(const ResultSet& results, const Summary& summary, bool with_trials) {
   nlohmann::json columns = nlohmann::json::array();
   for (const auto& c : results.columns)
     columns.push_back({{"name", c.name}, {"unit", c.unit}, {"direction", to_string(c.direction)},
                        {"summary", c.summary}});
   nlohmann::json trials = nlohmann::json::array();
-  for (const auto& t : results.trials) trials.push_back(trial_to_json(t, results.columns));
+  if (with_trials)
+    for (const auto& t : results.trials) trials.push_back(trial_to_json(t, results.columns));
   nlohmann::json warnings = nlohmann::json::array();
   for (const auto& w : all_warnings(results, summary))
     warnings.push_back({{"code", w.code}, {"where", w.where}, {"message", w.message}, {"hint", w.hint}});
@@ -33,6 +38,12 @@ nlohmann::json results_to_json(const ResultSet& results, const Summary& summary)
           {"timing", results.timing}};
   if (!results.examples.is_null()) out["examples"] = results.examples;
   return out;
+}
+
+}  // namespace
+
+nlohmann::json results_to_json(const ResultSet& results, const Summary& summary) {
+  return results_document(results, summary, true);
 }
 
 namespace {
@@ -96,19 +107,9 @@ void write_object(std::ostream& out, const json& object, const std::map<std::str
 
 void write_results_json(std::ostream& out, const ResultSet& results, const Summary& summary) {
   // The document without its two long arrays; those are written element by element.
-  ResultSet frame;
-  frame.context = results.context;
-  frame.series = results.series;
-  frame.columns = results.columns;
-  frame.warnings = results.warnings;
-  frame.rank_by = results.rank_by;
-  frame.alpha = results.alpha;
-  frame.equivalence = results.equivalence;
-  frame.timing = results.timing;
-  frame.examples = results.examples;
   Summary outline = summary;
   outline.groups.clear();
-  const json document = results_to_json(frame, outline);
+  const json document = results_document(results, outline, false);
 
   const ValueWriter trials = [&](std::ostream& o, int depth) {
     write_array(o, results.trials.size(),
@@ -119,7 +120,7 @@ void write_results_json(std::ostream& out, const ResultSet& results, const Summa
     one.across.clear();
     write_array(o, summary.groups.size(), [&](std::size_t i) {
       one.groups.assign(1, summary.groups[i]);
-      return summary_to_json(one, frame).at("groups").at(0);
+      return summary_to_json(one, results).at("groups").at(0);
     }, depth);
   };
   const ValueWriter summary_member = [&](std::ostream& o, int depth) {

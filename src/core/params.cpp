@@ -3,6 +3,7 @@
 #include <algorithm>
 #include <cmath>
 #include <nlohmann/json.hpp>
+#include <utility>
 
 #include "gapmark/error.hpp"
 #include "gapmark/number_format.hpp"
@@ -70,6 +71,15 @@ ParamValue convert(const ParamSpec& spec, const std::string& text, const std::st
 }
 
 }  // namespace
+
+ParamSpec choice_param(std::string name, std::string default_value, std::vector<std::string> choices,
+                       std::string help) {
+  return {.name = std::move(name),
+          .type = ParamType::Choice,
+          .default_value = std::move(default_value),
+          .choices = std::move(choices),
+          .help = std::move(help)};
+}
 
 CallSpec CallSpec::parse(std::string_view text, const std::string& where) {
   CallSpec call;

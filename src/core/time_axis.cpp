@@ -19,15 +19,9 @@
 namespace gapmark {
 namespace {
 
-using calendar::Civil;
-using calendar::floor_div;
-using calendar::is_month_end;
-using calendar::kMonthEnd;
-using calendar::last_day_of_month;
-using calendar::month_number;
-using calendar::to_civil;
-constexpr std::int64_t kDay = calendar::kSecondsPerDay;
-constexpr std::int64_t kWeek = calendar::kSecondsPerWeek;
+using namespace calendar;
+constexpr std::int64_t kDay = kSecondsPerDay;
+constexpr std::int64_t kWeek = kSecondsPerWeek;
 
 // Moves `months` calendar months from `value`, onto day `month_day` (0: the
 // value's own day) clamped to the length of the month reached.

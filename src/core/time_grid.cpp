@@ -13,13 +13,9 @@
 namespace gapmark::data {
 namespace {
 
-using calendar::Civil;
-using calendar::floor_div;
-using calendar::is_month_end;
-using calendar::month_number;
-using calendar::month_point;
-constexpr std::int64_t kDay = calendar::kSecondsPerDay;
-constexpr std::int64_t kWeek = calendar::kSecondsPerWeek;
+using namespace calendar;
+constexpr std::int64_t kDay = kSecondsPerDay;
+constexpr std::int64_t kWeek = kSecondsPerWeek;
 
 }  // namespace
 

@@ -70,9 +70,7 @@ public:
     FillResult result;
     result.values.assign(x.begin(), x.end());
     result.variance.assign(n, 0.0);
-    std::size_t first = 0, last = n - 1;
-    while (std::isnan(x[first])) ++first;
-    while (std::isnan(x[last])) --last;
+    const auto [first, last] = *observed_span(x);  // observed > 0 above
 
     bool constant_series = true;
     for (std::size_t t = first; t <= last; ++t)

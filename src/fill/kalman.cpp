@@ -57,9 +57,7 @@ public:
     FillResult result;
     result.values.assign(x.begin(), x.end());
     result.variance.assign(n, 0.0);
-    std::size_t first = 0, last = n - 1;
-    while (std::isnan(x[first])) ++first;
-    while (std::isnan(x[last])) --last;
+    const auto [first, last] = *observed_span(x);  // data.observed >= needed > 0 above
 
     if (data.scale == 0) {  // constant: the model's fit is exact, every variance is zero
       for (std::size_t t = 0; t < n; ++t)
@@ -179,12 +177,9 @@ const Registration<FillMethod> registration{{
     .name = "kalman",
     .summary = "smoothed signal of a structural state-space model (local level, local linear trend, or "
                "trend plus seasonal) with maximum-likelihood variances",
-    .params = {{.name = "model",
-                .type = ParamType::Choice,
-                .default_value = "level",
-                .choices = {"level", "trend", "seasonal"},
-                .help = "level: random-walk level; trend: level and slope; seasonal: level, slope and a "
-                        "seasonal of the series' period (see harmonics)"},
+    .params = {choice_param("model", "level", {"level", "trend", "seasonal"},
+                            "level: random-walk level; trend: level and slope; seasonal: level, slope and a "
+                            "seasonal of the series' period (see harmonics)"),
                {.name = "harmonics",
                 .type = ParamType::Integer,
                 .default_value = "0",
@@ -196,12 +191,10 @@ const Registration<FillMethod> registration{{
                         "k below period/2; far faster for long periods)"},
                edges_param(),
                draws_param(),
-               {.name = "variance",
-                .type = ParamType::Choice,
-                .default_value = "value",
-                .choices = {"signal", "value"},
-                .help = "variance returned at filled points: of the missing value itself (signal plus irregular: "
-                        "what an interval for the true value needs), or of the smoothed signal only"}},
+               choice_param("variance", "value", {"signal", "value"},
+                            "variance returned at filled points: of the missing value itself (signal plus "
+                            "irregular: what an interval for the true value needs), or of the smoothed signal "
+                            "only")},
     .needs = {.period = false, .uses_period = true, .siblings = false, .min_observed = 3},
     .make = [](const ParamValues& p) {
       if (p.integer("harmonics") != 0 && p.text("model") != "seasonal")

@@ -107,8 +107,8 @@ std::uint64_t data_seed(const std::vector<std::span<const double>>& columns) {
 
 class LowRank final : public FillMethod {
 public:
-  LowRank(std::size_t rank, double lambda_fraction, double tolerance, std::size_t max_iterations)
-      : rank_(rank), lambda_fraction_(lambda_fraction), tolerance_(tolerance), max_iterations_(max_iterations) {}
+  // `base` carries the rank cap and the stopping rule; its lambda is set per fill.
+  LowRank(const SoftImputeOptions& base, double lambda_fraction) : base_(base), lambda_fraction_(lambda_fraction) {}
 
   FillResult fill(const FillRequest& request) const override {
     check_needs(kNeeds, request);
@@ -120,8 +120,9 @@ public:
       throw MethodFailure("needs at least one sibling series of the same length with observed values",
                           UnmetNeed::Siblings);
     const auto k = static_cast<Eigen::Index>(columns.size());
-    if (rank_ > 0 && lambda_fraction_ == 0.0 && rank_ >= columns.size())
-      throw MethodFailure("rank " + std::to_string(rank_) + " leaves nothing to complete with " +
+    const std::size_t rank = base_.max_rank;
+    if (rank > 0 && lambda_fraction_ == 0.0 && rank >= columns.size())
+      throw MethodFailure("rank " + std::to_string(rank) + " leaves nothing to complete with " +
                           std::to_string(columns.size()) + " series; choose a rank below the number of series");
 
     Eigen::MatrixXd x(static_cast<Eigen::Index>(n), k);
@@ -132,11 +133,10 @@ public:
         x(static_cast<Eigen::Index>(i), j) = (columns[j][i] - scales[j].centre) / scales[j].scale;
     }
 
-    SoftImputeOptions options{.lambda = 0.0, .max_rank = rank_, .tolerance = tolerance_,
-                              .max_iterations = max_iterations_};
+    SoftImputeOptions options = base_;
     Eigen::MatrixXd start = Eigen::MatrixXd::Zero(x.rows(), x.cols());
     bool chose_at_grid_end = false;
-    if (rank_ == 0 && lambda_fraction_ == 0.0) {
+    if (rank == 0 && lambda_fraction_ == 0.0) {
       const std::size_t observed = static_cast<std::size_t>((!x.array().isNaN()).count());
       if (observed < kMinObservedForSelection)
         throw MethodFailure("only " + std::to_string(observed) + " observed cells, too few to choose lambda by " +
@@ -178,10 +178,8 @@ public:
   }
 
 private:
-  std::size_t rank_;
+  SoftImputeOptions base_;
   double lambda_fraction_;
-  double tolerance_;
-  std::size_t max_iterations_;
 };
 
 const Registration<FillMethod> registration{{
@@ -202,8 +200,11 @@ const Registration<FillMethod> registration{{
                 .help = "update steps at most (per lambda while choosing it)"}},
     .needs = kNeeds,
     .make = [](const ParamValues& p) {
-      return std::make_unique<LowRank>(static_cast<std::size_t>(p.integer("rank")), p.real("lambda"),
-                                       p.real("tolerance"), static_cast<std::size_t>(p.integer("max_iterations")));
+      const SoftImputeOptions base{.lambda = 0.0,
+                                   .max_rank = static_cast<std::size_t>(p.integer("rank")),
+                                   .tolerance = p.real("tolerance"),
+                                   .max_iterations = static_cast<std::size_t>(p.integer("max_iterations"))};
+      return std::make_unique<LowRank>(base, p.real("lambda"));
     },
 }};
 

@@ -25,11 +25,8 @@ void check_needs(const Needs& needs, const FillRequest& request) {
 }
 
 ParamSpec edges_param() {
-  return {.name = "edges",
-          .type = ParamType::Choice,
-          .default_value = "nearest",
-          .choices = {"nearest", "leave"},
-          .help = "gaps before the first or after the last observation: nearest value, or left empty"};
+  return choice_param("edges", "nearest", {"nearest", "leave"},
+                      "gaps before the first or after the last observation: nearest value, or left empty");
 }
 
 ParamSpec draws_param() {
@@ -43,14 +40,20 @@ ParamSpec draws_param() {
                   "multiple imputation and the sample metrics"};
 }
 
-void fill_edges_nearest(std::vector<double>& values) {
+std::optional<ObservedSpan> observed_span(std::span<const double> values) {
   std::size_t first = 0;
   while (first < values.size() && std::isnan(values[first])) ++first;
-  if (first == values.size()) return;
+  if (first == values.size()) return std::nullopt;
   std::size_t last = values.size() - 1;
   while (std::isnan(values[last])) --last;
-  for (std::size_t i = 0; i < first; ++i) values[i] = values[first];
-  for (std::size_t i = last + 1; i < values.size(); ++i) values[i] = values[last];
+  return ObservedSpan{first, last};
+}
+
+void fill_edges_nearest(std::vector<double>& values) {
+  const auto span = observed_span(values);
+  if (!span) return;
+  for (std::size_t i = 0; i < span->first; ++i) values[i] = values[span->first];
+  for (std::size_t i = span->last + 1; i < values.size(); ++i) values[i] = values[span->last];
 }
 
 }  // namespace gapmark

@@ -23,6 +23,22 @@ void widen(double& lo, double& hi, const std::vector<double>& xs) {
     if (std::isfinite(x)) lo = std::min(lo, x), hi = std::max(hi, x);
 }
 
+// Calls visit(i, j) for each masked stretch [i, j) of the window, in order.
+template <class Visit>
+void for_each_masked_run(const std::vector<double>& mask_values, Visit visit) {
+  const std::size_t w = mask_values.size();
+  for (std::size_t i = 0; i < w;) {
+    if (mask_values[i] != 1) {
+      ++i;
+      continue;
+    }
+    std::size_t j = i;
+    while (j < w && mask_values[j] == 1) ++j;
+    visit(i, j);
+    i = j;
+  }
+}
+
 }  // namespace
 
 std::string window_chart(const nlohmann::json& example, const std::vector<svg::Style>& styles,
@@ -50,18 +66,11 @@ std::string window_chart(const nlohmann::json& example, const std::vector<svg::S
   const auto x_ticks = svg::nice_ticks(start, start + static_cast<double>(w) - 1, 6);
   std::string out = open_svg(plot, "Example window: true values, hidden points and fills");
   // Masked stretches first, behind everything.
-  for (std::size_t i = 0; i < w;) {
-    if (mask_values[i] != 1) {
-      ++i;
-      continue;
-    }
-    std::size_t j = i;
-    while (j < w && mask_values[j] == 1) ++j;
+  for_each_masked_run(mask_values, [&](std::size_t i, std::size_t j) {
     const double a = plot.x(start + static_cast<double>(i) - 0.5), b = plot.x(start + static_cast<double>(j) - 0.5);
     out += "<rect x=\"" + coord(a) + "\" y=\"" + coord(plot.y1()) + "\" width=\"" + coord(b - a) + "\" height=\"" +
            coord(plot.y0() - plot.y1()) + "\" fill=\"" + svg::kShade + "\"/>";
-    i = j;
-  }
+  });
   out += axes(plot, x_ticks, {}, y_ticks, "position in the series", y_label);
   std::vector<double> xs(w), ys(w);
   for (std::size_t i = 0; i < w; ++i) {
@@ -79,13 +88,7 @@ std::string window_chart(const nlohmann::json& example, const std::vector<svg::S
     if (fills[m].size() != w) continue;
     const svg::Style s = m < styles.size() ? styles[m] : svg::style(m);
     out += "<g class=\"fill\"><title>" + svg::escape(names[m]) + "</title>";
-    for (std::size_t i = 0; i < w;) {
-      if (mask_values[i] != 1) {
-        ++i;
-        continue;
-      }
-      std::size_t j = i;
-      while (j < w && mask_values[j] == 1) ++j;
+    for_each_masked_run(mask_values, [&](std::size_t i, std::size_t j) {
       std::vector<double> px, py;
       if (i > 0 && std::isfinite(truth[i - 1])) px.push_back(xs[i - 1]), py.push_back(ys[i - 1]);
       for (std::size_t k = i; k < j; ++k) {
@@ -96,8 +99,7 @@ std::string window_chart(const nlohmann::json& example, const std::vector<svg::S
       out += svg::polyline(px, py, s, 1.8);
       for (std::size_t k = i; k < j; ++k)
         if (std::isfinite(fills[m][k])) out += svg::marker(s, xs[k], plot.y(fills[m][k]), 2.4);
-      i = j;
-    }
+    });
     out += "</g>";
   }
   out += "</svg>";

@@ -63,13 +63,7 @@ private:
 const Registration<Metric> registration{{
     .name = "interval",
     .summary = "predictive intervals on the masked points (methods with a variance): coverage, coverage_error, crps",
-    .params = {{.name = "level",
-                .type = ParamType::Real,
-                .default_value = "0.9",
-                .min = 0.01,
-                .max = 0.99,
-                .choices = {},
-                .help = "probability of the central interval"}},
+    .params = {interval_level_param("probability of the central interval")},
     .make = [](const ParamValues& p) { return std::make_unique<IntervalScore>(p.real("level")); },
 }};
 

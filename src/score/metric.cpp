@@ -1,6 +1,7 @@
 #include "gapmark/score/metric.hpp"
 
 #include <cmath>
+#include <utility>
 
 #include "gapmark/error.hpp"
 
@@ -35,6 +36,16 @@ double badness(double value, Direction direction) {
     case Direction::None: return value;
   }
   return value;
+}
+
+ParamSpec interval_level_param(std::string help) {
+  return {.name = "level",
+          .type = ParamType::Real,
+          .default_value = "0.9",
+          .min = 0.01,
+          .max = 0.99,
+          .choices = {},
+          .help = std::move(help)};
 }
 
 std::vector<std::string> default_metric_calls() {

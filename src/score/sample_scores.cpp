@@ -95,13 +95,7 @@ const Registration<Metric> registration{{
     .name = "sample",
     .summary = "scores of the method's draws (methods with draws=M): sample_crps, sample_coverage(_error), "
                "gap_total_coverage(_error)",
-    .params = {{.name = "level",
-                .type = ParamType::Real,
-                .default_value = "0.9",
-                .min = 0.01,
-                .max = 0.99,
-                .choices = {},
-                .help = "probability of the central intervals (of each point's draws, of each gap's totals)"}},
+    .params = {interval_level_param("probability of the central intervals (of each point's draws, of each gap's totals)")},
     .make = [](const ParamValues& p) { return std::make_unique<SampleScores>(p.real("level")); },
 }};
 

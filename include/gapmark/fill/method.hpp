@@ -10,6 +10,7 @@
 #include <cstddef>
 #include <cstdint>
 #include <memory>
+#include <optional>
 #include <span>
 #include <string>
 #include <vector>
@@ -81,6 +82,13 @@ ParamSpec edges_param();
 ParamSpec draws_param();
 /// Largest number of draws a method accepts.
 inline constexpr std::int64_t kMaxDraws = 10000;
+/// The first and last observed (non-NaN) positions of a series.
+struct ObservedSpan {
+  std::size_t first;
+  std::size_t last;
+};
+/// std::nullopt when no value is observed.
+std::optional<ObservedSpan> observed_span(std::span<const double> values);
 /// Fills leading and trailing gaps of `values` with the nearest observed value.
 void fill_edges_nearest(std::vector<double>& values);
 

@@ -64,4 +64,8 @@ using MetricRegistry = Registry<Metric>;
 /// The metric calls used when a spec names none.
 std::vector<std::string> default_metric_calls();
 
+/// The `level` parameter of a metric that scores central intervals: a
+/// probability in [0.01, 0.99], 0.9 by default; `help` says which intervals.
+ParamSpec interval_level_param(std::string help);
+
 }  // namespace gapmark
