@@ -8,11 +8,10 @@
 #include <cmath>
 #include <cstring>
 #include <fstream>
-#include <map>
-#include <unordered_set>
 
 #include "gapmark/error.hpp"
 #include "gapmark/experiment/record_checks.hpp"
+#include "gapmark/experiment/task_slots.hpp"
 #include "gapmark/table_io.hpp"
 
 namespace gapmark {
@@ -106,12 +105,11 @@ ResultSet merge_checkpoints(const std::vector<fs::path>& inputs, const MergeOpti
   if (!missing.empty()) throw InputError("merge", "missing shard " + missing + ": give the folder of every shard");
 
   const std::size_t total = first.grid_tasks;
-  std::vector<std::vector<TrialRecord>> slots(total);
-  std::vector<std::vector<Warning>> slot_warnings(total);
+  TaskSlots slots(total);
   for (std::size_t i = 0; i < heads.size(); ++i) {
     const CheckpointScan scan = read_checkpoint(heads[i].path, [&](StoredTask&& t) {
-      slots[t.task] = std::move(t.trials);
-      slot_warnings[t.task] = std::move(t.warnings);
+      slots.records[t.task] = std::move(t.trials);
+      slots.warnings[t.task] = std::move(t.warnings);
     });
     const std::size_t expected = scan.shard.size(total);
     if (scan.done.size() != expected)
@@ -132,23 +130,7 @@ ResultSet merge_checkpoints(const std::vector<fs::path>& inputs, const MergeOpti
   } catch (const json::exception& e) {
     throw InputError(checkpoint_path(inputs[0]).string() + ":1", std::string("malformed checkpoint header: ") + e.what());
   }
-  std::size_t records = 0;
-  for (const auto& s : slots) records += s.size();
-  results.trials.reserve(records);
-  std::unordered_set<std::string> warned;
-  std::map<std::string, double> method_seconds;
-  for (std::size_t t = 0; t < total; ++t) {
-    for (auto& w : slot_warnings[t])
-      if (warned.insert(w.code + '\x1f' + w.where).second) results.warnings.push_back(std::move(w));
-    for (auto& r : slots[t]) {
-      if (std::isfinite(r.seconds)) method_seconds[r.method] += r.seconds;
-      results.trials.push_back(std::move(r));
-    }
-    std::vector<TrialRecord>().swap(slots[t]);
-    std::vector<Warning>().swap(slot_warnings[t]);
-  }
-  json per_method = json::object();
-  for (const auto& [m, s] : method_seconds) per_method[m] = s;
+  const json per_method = gather_task_slots(slots, results);
   results.timing = {{"fill_seconds_by_method", per_method}, {"checkpoints", heads.size()}};
   return results;
 }

@@ -4,9 +4,7 @@
 #include <chrono>
 #include <cmath>
 #include <exception>
-#include <map>
 #include <optional>
-#include <unordered_set>
 #include <mutex>
 
 #include "gapmark/error.hpp"
@@ -15,6 +13,7 @@
 #include "gapmark/parallel_for.hpp"
 #include "gapmark/experiment/checkpoint.hpp"
 #include "gapmark/experiment/merge.hpp"
+#include "gapmark/experiment/task_slots.hpp"
 #include "gapmark/hash.hpp"
 #include "gapmark/mask/mask_table.hpp"
 #include "gapmark/number_format.hpp"
@@ -294,8 +293,7 @@ ResultSet run_experiment(const ExperimentSpec& spec, const RunOptions& options) 
   const std::vector<Task> tasks = build_tasks(spec, data);
   ResultSet results = results_frame(spec, data);
 
-  std::vector<std::vector<TrialRecord>> slots(tasks.size());
-  std::vector<std::vector<Warning>> slot_warnings(tasks.size());
+  TaskSlots slots(tasks.size());
   std::vector<std::size_t> todo(tasks.size());
   for (std::size_t i = 0; i < todo.size(); ++i) todo[i] = i;
   std::size_t finished = 0;
@@ -303,21 +301,11 @@ ResultSet run_experiment(const ExperimentSpec& spec, const RunOptions& options) 
   inner.stop = nullptr;  // in memory, a run is all or nothing
   run_tasks(spec, data, tasks, todo, inner,
             [&](std::size_t task, std::vector<TrialRecord>&& records, std::vector<Warning>&& warnings) {
-              slots[task] = std::move(records);
-              slot_warnings[task] = std::move(warnings);
+              slots.records[task] = std::move(records);
+              slots.warnings[task] = std::move(warnings);
               if (options.progress) options.progress(++finished, tasks.size());
             });
-
-  std::map<std::string, double> method_seconds;
-  for (std::size_t i = 0; i < tasks.size(); ++i) {
-    for (auto& w : slot_warnings[i]) add_warning(results.warnings, std::move(w));
-    for (auto& r : slots[i]) {
-      method_seconds[r.method] += r.seconds;
-      results.trials.push_back(std::move(r));
-    }
-  }
-  nlohmann::json per_method = nlohmann::json::object();
-  for (const auto& [m, s] : method_seconds) per_method[m] = s;
+  const nlohmann::json per_method = gather_task_slots(slots, results);
   results.timing = {{"wall_seconds", std::chrono::duration<double>(std::chrono::steady_clock::now() - started).count()},
                     {"fill_seconds_by_method", per_method},
                     {"threads", std::max(1u, options.threads)}};
@@ -391,12 +379,11 @@ nlohmann::json run_missing_tasks(const ExperimentSpec& spec, const RunOptions& o
   status.total = status.shard.size(tasks.size());
   status.done = status.resumed;
   if (options.progress) options.progress(status.done, status.total);
-  std::unordered_set<std::string> warned;
+  WarningCollector warned(status.warnings);
   run_tasks(spec, data, tasks, todo, options,
             [&](std::size_t task, std::vector<TrialRecord>&& records, std::vector<Warning>&& warnings) {
               writer->append(task_line(task, records, warnings));
-              for (auto& w : warnings)
-                if (warned.insert(w.code + '\x1f' + w.where).second) status.warnings.push_back(std::move(w));
+              for (auto& w : warnings) warned.add(std::move(w));
               ++status.done;
               if (options.progress) options.progress(status.done, status.total);
             });
