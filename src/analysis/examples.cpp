@@ -1,4 +1,5 @@
 #include "gapmark/analysis/examples.hpp"
+#include "gapmark/score/metric_names.hpp"
 
 #include <algorithm>
 #include <cmath>
@@ -19,8 +20,8 @@ namespace {
 std::size_t acf_lags(const ExperimentSpec& spec, const Series& series) {
   std::size_t lags = 0;
   for (const auto& m : spec.metrics)
-    if (m.entry && m.entry->name == "acf" && m.params.has("lags"))
-      lags = static_cast<std::size_t>(m.params.integer("lags"));
+    if (m.entry && m.entry->name == metric_names::acf::kName && m.params.has(metric_names::acf::kLags))
+      lags = static_cast<std::size_t>(m.params.integer(metric_names::acf::kLags));
   if (lags == 0) lags = series.period >= 2 ? 2 * series.period : 24;
   return series.values.size() > 1 ? std::min(lags, series.values.size() - 1) : 0;
 }

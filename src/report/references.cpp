@@ -4,6 +4,7 @@
 // only where we are confident of them. Check an entry against the
 // publisher's record before citing it in print.
 #include "gapmark/report/references.hpp"
+#include "gapmark/score/metric_names.hpp"
 
 #include <algorithm>
 #include <cmath>
@@ -100,8 +101,12 @@ const std::map<std::string, std::vector<std::string>> kMethodKeys = {
 
 /// Metric columns.
 const std::map<std::string, std::vector<std::string>> kColumnKeys = {
-    {"acf_rms", {"box2008"}},           {"acf_max", {"box2008"}},           {"mase_filled", {"hyndman2006"}},
-    {"mase_complete", {"hyndman2006"}}, {"mase_cost", {"hyndman2006"}},     {"crps", {"gneiting2007"}},
+    {metric_names::acf::kRms, {"box2008"}},
+    {metric_names::acf::kMax, {"box2008"}},
+    {metric_names::forecast::kMaseFilled, {"hyndman2006"}},
+    {metric_names::forecast::kMaseComplete, {"hyndman2006"}},
+    {metric_names::forecast::kMaseCost, {"hyndman2006"}},
+    {metric_names::interval::kCrps, {"gneiting2007"}},
 };
 
 /// Tests and intervals, by the name methods.md gives them.
@@ -119,22 +124,23 @@ std::string call_name(const std::string& label) {
   return colon == std::string::npos ? label : label.substr(0, colon);
 }
 
-/// The forecaster of the run's "forecast" metric ("holt-winters" by default).
+/// The forecaster of the run's "forecast" metric (Holt-Winters by default).
 std::string forecast_model(const ResultSet& results) {
+  namespace fc = metric_names::forecast;
   const auto& spec = results.context.value("spec", nlohmann::json::object());
   if (spec.is_object() && spec.contains("metrics") && spec["metrics"].is_array()) {
     for (const auto& m : spec["metrics"]) {
       if (m.is_string()) {
         const auto call = CallSpec::parse(m.get<std::string>(), "metrics");
-        if (call.name != "forecast") continue;
+        if (call.name != fc::kName) continue;
         for (const auto& [k, v] : call.args)
-          if (k == "model") return v;
-      } else if (m.is_object() && m.value("name", std::string()) == "forecast") {
-        return m.value("model", std::string("holt-winters"));
+          if (k == fc::kModel) return v;
+      } else if (m.is_object() && m.value("name", std::string()) == fc::kName) {
+        return m.value(fc::kModel, std::string(fc::kHoltWinters));
       }
     }
   }
-  return "holt-winters";
+  return fc::kHoltWinters;
 }
 
 }  // namespace
@@ -158,7 +164,7 @@ std::vector<CitedUse> cited_uses(const ResultSet& results, const Summary& summar
   for (const auto& c : results.columns)
     if (auto it = kColumnKeys.find(c.name); it != kColumnKeys.end()) {
       auto keys = it->second;
-      if (c.name == "mase_filled" && forecast_model(results) == "holt-winters") keys.push_back("winters1960");
+      if (c.name == metric_names::forecast::kMaseFilled && forecast_model(results) == metric_names::forecast::kHoltWinters) keys.push_back("winters1960");
       uses.push_back({"metric", c.name, keys});
     }
   auto test = [&](const std::string& name) { uses.push_back({"test", name, kTestKeys.at(name)}); };

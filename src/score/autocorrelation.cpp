@@ -14,6 +14,7 @@
 #include <limits>
 
 #include "gapmark/score/metric.hpp"
+#include "gapmark/score/metric_names.hpp"
 #include "gapmark/stats/acf.hpp"
 
 namespace gapmark {
@@ -26,11 +27,11 @@ public:
   explicit AutocorrelationDistortion(std::size_t lags) : lags_(lags) {}
 
   std::vector<MetricColumn> columns() const override {
-    return {{"acf_rms", "correlation", Direction::Lower,
+    return {{metric_names::acf::kRms, "correlation", Direction::Lower,
              "root mean square of filled minus complete autocorrelation over lags 1..L"},
-            {"acf_max", "correlation", Direction::Lower,
+            {metric_names::acf::kMax, "correlation", Direction::Lower,
              "largest absolute difference of filled and complete autocorrelation over lags 1..L"},
-            {"var_ratio", "ratio", Direction::OneBest,
+            {metric_names::acf::kVarRatio, "ratio", Direction::OneBest,
              "variance of the filled series over that of the complete series"}};
   }
 
@@ -88,9 +89,9 @@ private:
 };
 
 const Registration<Metric> registration{{
-    .name = "acf",
+    .name = metric_names::acf::kName,
     .summary = "autocorrelation distortion at lags 1..L: acf_rms, acf_max, var_ratio",
-    .params = {{.name = "lags",
+    .params = {{.name = metric_names::acf::kLags,
                 .type = ParamType::Integer,
                 .default_value = "0",
                 .min = 0,
@@ -98,7 +99,7 @@ const Registration<Metric> registration{{
                 .choices = {},
                 .help = "largest lag L; 0 = twice the period, or 24 without a period"}},
     .make = [](const ParamValues& p) {
-      return std::make_unique<AutocorrelationDistortion>(static_cast<std::size_t>(p.integer("lags")));
+      return std::make_unique<AutocorrelationDistortion>(static_cast<std::size_t>(p.integer(metric_names::acf::kLags)));
     },
 }};
 

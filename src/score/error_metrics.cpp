@@ -5,6 +5,7 @@
 #include <cmath>
 
 #include "gapmark/score/metric.hpp"
+#include "gapmark/score/metric_names.hpp"
 
 namespace gapmark {
 namespace {
@@ -12,10 +13,10 @@ namespace {
 class ErrorMetrics final : public Metric {
 public:
   std::vector<MetricColumn> columns() const override {
-    return {{"mae", "value", Direction::Lower, "mean absolute error on the masked points"},
-            {"rmse", "value", Direction::Lower, "root mean squared error on the masked points"},
-            {"bias", "value", Direction::ZeroBest, "mean of filled minus true on the masked points"},
-            {"scored", "count", Direction::None, "masked points that were filled and scored"}};
+    return {{metric_names::error::kMae, "value", Direction::Lower, "mean absolute error on the masked points"},
+            {metric_names::error::kRmse, "value", Direction::Lower, "root mean squared error on the masked points"},
+            {metric_names::error::kBias, "value", Direction::ZeroBest, "mean of filled minus true on the masked points"},
+            {metric_names::error::kScored, "count", Direction::None, "masked points that were filled and scored"}};
   }
 
   void compute(const ScoreInput& in, std::span<double> out) const override {

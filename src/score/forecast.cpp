@@ -25,6 +25,7 @@
 #include <vector>
 
 #include "gapmark/forecast/holt_winters.hpp"
+#include "gapmark/score/metric_names.hpp"
 #include "gapmark/forecast/mase.hpp"
 #include "gapmark/forecast/seasonal_naive.hpp"
 #include "gapmark/score/metric.hpp"
@@ -68,11 +69,11 @@ public:
   ForecastEffect(Model model, std::size_t horizon) : model_(model), horizon_(horizon) {}
 
   std::vector<MetricColumn> columns() const override {
-    return {{"mase_filled", "scaled error", Direction::Lower,
+    return {{metric_names::forecast::kMaseFilled, "scaled error", Direction::Lower,
              "MASE on the holdout of the forecaster trained on the filled series"},
-            {"mase_complete", "scaled error", Direction::Lower,
+            {metric_names::forecast::kMaseComplete, "scaled error", Direction::Lower,
              "MASE on the holdout of the forecaster trained on the complete series"},
-            {"mase_cost", "scaled error", Direction::Lower,
+            {metric_names::forecast::kMaseCost, "scaled error", Direction::Lower,
              "mase_filled minus mase_complete: positive when the fill hurt the forecast"}};
   }
 
@@ -124,14 +125,14 @@ private:
 };
 
 const Registration<Metric> registration{{
-    .name = "forecast",
+    .name = metric_names::forecast::kName,
     .summary = "forecast effect on the holdout: mase_filled, mase_complete, mase_cost",
-    .params = {{.name = "model",
+    .params = {{.name = metric_names::forecast::kModel,
                 .type = ParamType::Choice,
-                .default_value = "holt-winters",
+                .default_value = metric_names::forecast::kHoltWinters,
                 .min = 0,
                 .max = 0,
-                .choices = {"holt-winters", "seasonal-naive"},
+                .choices = {metric_names::forecast::kHoltWinters, metric_names::forecast::kSeasonalNaive},
                 .help = "forecaster: additive Holt-Winters (needs a period) or seasonal naive"},
                {.name = "horizon",
                 .type = ParamType::Integer,
@@ -141,7 +142,7 @@ const Registration<Metric> registration{{
                 .choices = {},
                 .help = "points forecast, at most the holdout; 0 = the whole holdout"}},
     .make = [](const ParamValues& p) {
-      const Model model = p.text("model") == "seasonal-naive" ? Model::SeasonalNaive : Model::HoltWinters;
+      const Model model = p.text(metric_names::forecast::kModel) == metric_names::forecast::kSeasonalNaive ? Model::SeasonalNaive : Model::HoltWinters;
       return std::make_unique<ForecastEffect>(model, static_cast<std::size_t>(p.integer("horizon")));
     },
 }};

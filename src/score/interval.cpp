@@ -13,6 +13,7 @@
 #include <limits>
 
 #include "gapmark/score/metric.hpp"
+#include "gapmark/score/metric_names.hpp"
 #include "gapmark/stats/crps.hpp"
 
 namespace gapmark {
@@ -23,11 +24,11 @@ public:
   explicit IntervalScore(double level) : level_(level), half_width_(stats::gaussian_central_half_width(level)) {}
 
   std::vector<MetricColumn> columns() const override {
-    return {{"coverage", "probability", Direction::None,
+    return {{metric_names::interval::kCoverage, "probability", Direction::None,
              "share of masked points inside the central predictive interval; best equal to the level"},
-            {"coverage_error", "probability", Direction::ZeroBest,
+            {metric_names::interval::kCoverageError, "probability", Direction::ZeroBest,
              "coverage minus the nominal level: below zero the intervals are too narrow"},
-            {"crps", "value", Direction::Lower,
+            {metric_names::interval::kCrps, "value", Direction::Lower,
              "mean continuous ranked probability score of the Gaussian predictive distribution"}};
   }
 
