@@ -99,14 +99,10 @@ std::string to_string(Verdict v) {
 
 std::string CellChange::name() const { return cell_name({series, scheme, rate, method}); }
 
-Comparison compare_results(const ResultSet& baseline, const ResultSet& current, const Tolerances& tolerances,
-                           const std::string& baseline_source, const std::string& current_source) {
-  Comparison out;
-  out.baseline_source = baseline_source;
-  out.current_source = current_source;
-  out.alpha = current.alpha;
-  out.tolerances = tolerances;
+namespace {
 
+/// Notes on what differs between the two runs' settings and inputs.
+void note_context_differences(const ResultSet& baseline, const ResultSet& current, Comparison& out) {
   if (baseline.alpha != current.alpha)
     out.notes.push_back("alpha differs (baseline " + format_double(baseline.alpha) + ", current " +
                         format_double(current.alpha) + "); the current one is used");
@@ -120,9 +116,13 @@ Comparison compare_results(const ResultSet& baseline, const ResultSet& current, 
     out.notes.push_back("the spec files differ (SHA-256); cells are still matched by name");
   const auto inputs_b = baseline.context.value("inputs", nlohmann::json()), inputs_c = current.context.value("inputs", nlohmann::json());
   if (inputs_b != inputs_c) out.notes.push_back("the input data files differ (names or SHA-256)");
+}
 
-  // Metric columns by name.
-  std::vector<std::pair<std::size_t, std::size_t>> shared;  // (baseline column, current column)
+/// Metric columns matched by name: (baseline column, current column) of
+/// those in both; the lists of compared, uncompared and one-sided metrics.
+std::vector<std::pair<std::size_t, std::size_t>> match_columns(const ResultSet& baseline, const ResultSet& current,
+                                                               const Tolerances& tolerances, Comparison& out) {
+  std::vector<std::pair<std::size_t, std::size_t>> shared;
   std::set<std::string> current_names;
   for (const auto& c : current.columns) current_names.insert(c.name);
   for (std::size_t b = 0; b < baseline.columns.size(); ++b) {
@@ -139,105 +139,109 @@ Comparison compare_results(const ResultSet& baseline, const ResultSet& current, 
     for (const auto& b : baseline.columns) found = found || b.name == c.name;
     if (!found) out.metrics_only_in_current.push_back(c.name);
   }
+  return shared;
+}
 
-  std::vector<std::pair<std::vector<double>, std::vector<double>>> pairs;  // per metric change, in order
-  std::size_t candidates = 0;
-  const Indexed base = index_trials(baseline, baseline_source);
-  const Indexed cur = index_trials(current, current_source);
-  for (const auto& key : cur.order)
-    if (!base.cells.count(key)) out.only_in_current.push_back(cell_name(key));
+/// The paired values of one metric by replicate, as distances from the best
+/// value: x from the current run, y from the baseline.
+struct Pairs {
+  std::vector<double> x, y;
+};
 
-  bool identical = out.only_in_current.empty() && out.metrics_only_in_baseline.empty() &&
-                   out.metrics_only_in_current.empty();
-  for (const auto& key : base.order) {
-    auto it = cur.cells.find(key);
-    if (it == cur.cells.end()) {
-      out.only_in_baseline.push_back(cell_name(key));
-      identical = false;
-      continue;
-    }
-    const Cell& b = base.cells.at(key);
-    const Cell& c = it->second;
-    CellChange cell;
-    std::tie(cell.series, cell.scheme, cell.rate, cell.method) = key;
-    cell.baseline_trials = b.by_replicate.size();
-    cell.current_trials = c.by_replicate.size();
-    cell.baseline_failures = b.failures;
-    cell.current_failures = c.failures;
-    if (cell.current_failures > cell.baseline_failures) {
-      const std::string reason =
-          "failed trials " + std::to_string(cell.baseline_failures) + " -> " + std::to_string(cell.current_failures);
-      if (out.same_seed) {
-        cell.regressed = true;
-        cell.reasons.push_back(reason);
-      } else {
-        cell.more_failures_other_seed = true;
-      }
-    }
-    if (cell.baseline_trials != cell.current_trials || cell.baseline_failures != cell.current_failures)
-      identical = false;
+/// What the comparison of the cells gathers beside the cells themselves.
+struct CellTally {
+  std::vector<Pairs> pairs;    ///< per metric change, in order
+  std::size_t candidates = 0;  ///< compared metrics that changed with a direction
+  bool identical = true;
+};
 
-    for (const auto& [bc, cc] : shared) {
-      MetricChange m;
-      const auto& column = baseline.columns[bc];
-      m.metric = column.name;
-      m.direction = column.direction;
-      m.baseline_mean = mean_of(b, bc);
-      m.current_mean = mean_of(c, cc);
-      m.change = m.current_mean - m.baseline_mean;
-      m.relative_change = m.baseline_mean != 0 ? m.change / std::abs(m.baseline_mean) : kNaN;
-      m.p = kNaN;
-      // Pairs by replicate, distance from the best value.
-      std::vector<double> x, y;
-      for (const auto& [rep, tb] : b.by_replicate) {
-        auto tc = c.by_replicate.find(rep);
-        if (tc == c.by_replicate.end()) continue;
-        const double vb = tb->metrics[bc], vc = tc->second->metrics[cc];
-        if (!std::isfinite(vb) || !std::isfinite(vc)) continue;
-        x.push_back(badness(vc, column.direction));
-        y.push_back(badness(vb, column.direction));
-      }
-      m.pairs = x.size();
-      const bool same = same_number(m.baseline_mean, m.current_mean);
-      if (!same) identical = false;
-      if (!tolerances.compares(m.metric, current.rank_by)) continue;  // listed as not compared
-      if (same) {
-        m.verdict = Verdict::Same;
-      } else if (std::isnan(m.baseline_mean) || std::isnan(m.current_mean)) {
-        m.verdict = Verdict::NotComparable;
-      } else if (column.direction == Direction::None) {
-        m.verdict = Verdict::Changed;
-      } else {
-        m.worsening = badness(m.current_mean, column.direction) - badness(m.baseline_mean, column.direction);
-        m.allowed = tolerances.of(m.metric).allowed(badness(m.baseline_mean, column.direction));
-        ++candidates;
-        if (m.worsening < 0) m.verdict = Verdict::Better;
-        else if (m.worsening == 0) m.verdict = Verdict::Same;
-        else if (m.worsening <= m.allowed) m.verdict = Verdict::WorseWithinTolerance;
-        else m.verdict = Verdict::Regressed;  // until the corrected test says otherwise (below)
-      }
-      cell.metrics.push_back(m);
-      pairs.emplace_back(std::move(x), std::move(y));
-    }
-    out.cells.push_back(std::move(cell));
+/// One metric of one cell: means, change, pairs and the verdict before any test.
+MetricChange compare_metric(const Cell& b, const Cell& c, std::size_t bc, std::size_t cc, const MetricColumn& column,
+                            const Tolerances& tolerances, const std::string& rank_by, CellTally& tally,
+                            Pairs& pairs) {
+  MetricChange m;
+  m.metric = column.name;
+  m.direction = column.direction;
+  m.baseline_mean = mean_of(b, bc);
+  m.current_mean = mean_of(c, cc);
+  m.change = m.current_mean - m.baseline_mean;
+  m.relative_change = m.baseline_mean != 0 ? m.change / std::abs(m.baseline_mean) : kNaN;
+  m.p = kNaN;
+  for (const auto& [rep, tb] : b.by_replicate) {
+    auto tc = c.by_replicate.find(rep);
+    if (tc == c.by_replicate.end()) continue;
+    const double vb = tb->metrics[bc], vc = tc->second->metrics[cc];
+    if (!std::isfinite(vb) || !std::isfinite(vc)) continue;
+    pairs.x.push_back(badness(vc, column.direction));
+    pairs.y.push_back(badness(vb, column.direction));
   }
-  if (out.cells.empty()) throw InputError(current_source, no_shared_cell(baseline, current, baseline_source));
+  m.pairs = pairs.x.size();
+  const bool same = same_number(m.baseline_mean, m.current_mean);
+  if (!same) tally.identical = false;
+  if (!tolerances.compares(m.metric, rank_by)) return m;  // listed as not compared
+  if (same) {
+    m.verdict = Verdict::Same;
+  } else if (std::isnan(m.baseline_mean) || std::isnan(m.current_mean)) {
+    m.verdict = Verdict::NotComparable;
+  } else if (column.direction == Direction::None) {
+    m.verdict = Verdict::Changed;
+  } else {
+    m.worsening = badness(m.current_mean, column.direction) - badness(m.baseline_mean, column.direction);
+    m.allowed = tolerances.of(m.metric).allowed(badness(m.baseline_mean, column.direction));
+    ++tally.candidates;
+    if (m.worsening < 0) m.verdict = Verdict::Better;
+    else if (m.worsening == 0) m.verdict = Verdict::Same;
+    else if (m.worsening <= m.allowed) m.verdict = Verdict::WorseWithinTolerance;
+    else m.verdict = Verdict::Regressed;  // until the corrected test says otherwise (apply_tests)
+  }
+  return m;
+}
 
-  // Fewest pairs whose smallest attainable two-sided exact p, 2 / 2^n, can
-  // still reach alpha after Holm's correction over the candidate tests (the
-  // compared metrics that changed with a direction): candidates * 2 / 2^n < alpha.
-  out.min_pairs = stats::fewest_signed_rank_pairs(candidates, out.alpha);
+/// One cell present in both runs: its trial and failure counts and its
+/// compared metrics (those not compared are left out of the cell).
+CellChange compare_cell(const CellKey& key, const Cell& b, const Cell& c, const ResultSet& baseline,
+                        const std::vector<std::pair<std::size_t, std::size_t>>& shared,
+                        const Tolerances& tolerances, const std::string& rank_by, bool same_seed, CellTally& tally) {
+  CellChange cell;
+  std::tie(cell.series, cell.scheme, cell.rate, cell.method) = key;
+  cell.baseline_trials = b.by_replicate.size();
+  cell.current_trials = c.by_replicate.size();
+  cell.baseline_failures = b.failures;
+  cell.current_failures = c.failures;
+  if (cell.current_failures > cell.baseline_failures) {
+    const std::string reason =
+        "failed trials " + std::to_string(cell.baseline_failures) + " -> " + std::to_string(cell.current_failures);
+    if (same_seed) {
+      cell.regressed = true;
+      cell.reasons.push_back(reason);
+    } else {
+      cell.more_failures_other_seed = true;
+    }
+  }
+  if (cell.baseline_trials != cell.current_trials || cell.baseline_failures != cell.current_failures)
+    tally.identical = false;
+  for (const auto& [bc, cc] : shared) {
+    Pairs pairs;
+    MetricChange m = compare_metric(b, c, bc, cc, baseline.columns[bc], tolerances, rank_by, tally, pairs);
+    if (!tolerances.compares(m.metric, rank_by)) continue;
+    cell.metrics.push_back(std::move(m));
+    tally.pairs.push_back(std::move(pairs));
+  }
+  return cell;
+}
 
-  // The tests with power, then Holm over every test made (all cells and metrics).
+/// The signed-rank tests with power, Holm over every test made (all cells
+/// and metrics), and the final verdicts and regressed cells.
+void apply_tests(Comparison& out, const std::vector<Pairs>& pairs) {
   std::vector<double> ps;
   std::size_t k = 0;
   for (auto& cell : out.cells)
     for (auto& m : cell.metrics) {
-      const auto& [x, y] = pairs[k++];
+      const Pairs& p = pairs[k++];
       const bool directional = m.verdict == Verdict::Better || m.verdict == Verdict::WorseWithinTolerance ||
                                m.verdict == Verdict::Regressed;
       m.tested = directional && m.pairs >= out.min_pairs;
-      if (m.tested) m.p = stats::wilcoxon_signed_rank(x, y).p;
+      if (m.tested) m.p = stats::wilcoxon_signed_rank(p.x, p.y).p;
       ps.push_back(m.tested ? m.p : kNaN);
     }
   const std::vector<double> adjusted = stats::holm_adjust(ps);
@@ -258,7 +262,45 @@ Comparison compare_results(const ResultSet& baseline, const ResultSet& current, 
     }
     if (cell.regressed) out.regressed.push_back(cell.name());
   }
-  out.no_change = identical;
+}
+
+}  // namespace
+
+Comparison compare_results(const ResultSet& baseline, const ResultSet& current, const Tolerances& tolerances,
+                           const std::string& baseline_source, const std::string& current_source) {
+  Comparison out;
+  out.baseline_source = baseline_source;
+  out.current_source = current_source;
+  out.alpha = current.alpha;
+  out.tolerances = tolerances;
+  note_context_differences(baseline, current, out);
+  const auto shared = match_columns(baseline, current, tolerances, out);
+
+  const Indexed base = index_trials(baseline, baseline_source);
+  const Indexed cur = index_trials(current, current_source);
+  for (const auto& key : cur.order)
+    if (!base.cells.count(key)) out.only_in_current.push_back(cell_name(key));
+  CellTally tally;
+  tally.identical = out.only_in_current.empty() && out.metrics_only_in_baseline.empty() &&
+                    out.metrics_only_in_current.empty();
+  for (const auto& key : base.order) {
+    auto it = cur.cells.find(key);
+    if (it == cur.cells.end()) {
+      out.only_in_baseline.push_back(cell_name(key));
+      tally.identical = false;
+      continue;
+    }
+    out.cells.push_back(compare_cell(key, base.cells.at(key), it->second, baseline, shared, tolerances,
+                                     current.rank_by, out.same_seed, tally));
+  }
+  if (out.cells.empty()) throw InputError(current_source, no_shared_cell(baseline, current, baseline_source));
+
+  // Fewest pairs whose smallest attainable two-sided exact p, 2 / 2^n, can
+  // still reach alpha after Holm's correction over the candidate tests (the
+  // compared metrics that changed with a direction): candidates * 2 / 2^n < alpha.
+  out.min_pairs = stats::fewest_signed_rank_pairs(tally.candidates, out.alpha);
+  apply_tests(out, tally.pairs);
+  out.no_change = tally.identical;
   return out;
 }
 
