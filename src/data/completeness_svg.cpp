@@ -111,135 +111,174 @@ std::vector<Tick> ticks(TimeKind kind, std::int64_t lo, std::int64_t hi, std::si
   return out;
 }
 
-}  // namespace
+/// Where everything goes: margins, rows, the axis and legend, and the time
+/// range every group's grid covers (each point one step wide).
+struct Frame {
+  double left = 0, right = 36, top = 58;
+  double row_h = 0, row_gap = 4, group_gap = 0;
+  double plot_w = 0, plot_h = 0, axis_y = 0, legend_y = 0, height = 0;
+  std::int64_t lo = 0, hi = 0;
+  double span = 1;
+  std::size_t columns = 0;  ///< pixel columns of the plot
+  double x_of(std::int64_t t) const { return left + plot_w * double(t - lo) / span; }
+};
 
-std::string completeness_svg(const DataProfile& p, const CompletenessStyle& style) {
-  // Layout.
+Frame frame_for(const DataProfile& p, const CompletenessStyle& style) {
+  Frame f;
   std::size_t longest = 0;
   for (const auto& s : p.series) longest = std::max(longest, s.label.size());
-  const double left = std::clamp(double(longest) * 6.6 + 28, 90.0, 300.0);
-  const double right = 36, top = 58;
-  const double row_h = style.row_height, row_gap = 4, group_gap = p.group_columns.empty() ? 0 : 8;
-  const double plot_w = std::max(200.0, double(style.width) - left - right);
-  double plot_h = 0;
+  f.left = std::clamp(double(longest) * 6.6 + 28, 90.0, 300.0);
+  f.row_h = style.row_height;
+  f.group_gap = p.group_columns.empty() ? 0 : 8;
+  f.plot_w = std::max(200.0, double(style.width) - f.left - f.right);
   for (std::size_t k = 0; k < p.series.size(); ++k)
-    plot_h += row_h + row_gap + ((k > 0 && p.series[k].group != p.series[k - 1].group) ? group_gap : 0);
-  const double axis_y = top + plot_h + 4;
-  const double legend_y = axis_y + 46;
-  const double height = legend_y + 40;
-
-  // The time range: every group's grid, each point covering one step.
-  std::int64_t lo = 0, hi = 0;
+    f.plot_h += f.row_h + f.row_gap + ((k > 0 && p.series[k].group != p.series[k - 1].group) ? f.group_gap : 0);
+  f.axis_y = f.top + f.plot_h + 4;
+  f.legend_y = f.axis_y + 46;
+  f.height = f.legend_y + 40;
   bool any = false;
   for (const auto& g : p.groups) {
     if (g.grid.size() == 0) continue;
     const std::int64_t a = g.grid.at(0), b = advance(p.kind, g.grid.at(g.grid.size() - 1), p.step, 1);
-    lo = any ? std::min(lo, a) : a;
-    hi = any ? std::max(hi, b) : b;
+    f.lo = any ? std::min(f.lo, a) : a;
+    f.hi = any ? std::max(f.hi, b) : b;
     any = true;
   }
-  const double span = any && hi > lo ? double(hi - lo) : 1.0;
-  const auto x_of = [&](std::int64_t t) { return left + plot_w * double(t - lo) / span; };
-  const std::size_t columns = static_cast<std::size_t>(plot_w);
+  f.span = any && f.hi > f.lo ? double(f.hi - f.lo) : 1.0;
+  f.columns = static_cast<std::size_t>(f.plot_w);
+  return f;
+}
 
+/// The opening tag, the hatch pattern, the title lines and the row label.
+std::string chart_head(const DataProfile& p, const CompletenessStyle& style, const Frame& f) {
   std::string svg;
-  svg += "<svg xmlns=\"http://www.w3.org/2000/svg\" width=\"" + num(style.width) + "\" height=\"" + num(height) +
-         "\" viewBox=\"0 0 " + num(style.width) + " " + num(height) + "\" font-family=\"sans-serif\" font-size=\"11\" fill=\"" +
+  svg += "<svg xmlns=\"http://www.w3.org/2000/svg\" width=\"" + num(style.width) + "\" height=\"" + num(f.height) +
+         "\" viewBox=\"0 0 " + num(style.width) + " " + num(f.height) + "\" font-family=\"sans-serif\" font-size=\"11\" fill=\"" +
          kText + "\">\n";
   svg += "<defs><pattern id=\"absent\" width=\"4\" height=\"4\" patternUnits=\"userSpaceOnUse\" "
          "patternTransform=\"rotate(45)\"><rect width=\"4\" height=\"4\" fill=\"#ffffff\"/>"
          "<rect width=\"1.6\" height=\"4\" fill=\"" + std::string(kRecordInk) + "\"/></pattern></defs>\n";
-  svg += rect(0, 0, style.width, height, "#ffffff");
-  svg += text(left, 20, "Completeness of " + p.source, "font-size=\"14\" font-weight=\"bold\"");
-  svg += text(left, 38, std::to_string(p.series.size()) + " series, " + std::to_string(p.groups.size()) + " group" +
-                            (p.groups.size() == 1 ? "" : "s") + ", step " + p.step.iso() +
-                            "; each row is one series, time runs left to right");
-  svg += text(14, top + plot_h / 2, "series", "font-size=\"12\" text-anchor=\"middle\" transform=\"rotate(-90 14 " +
-                                                 num(top + plot_h / 2) + ")\"");
+  svg += rect(0, 0, style.width, f.height, "#ffffff");
+  svg += text(f.left, 20, "Completeness of " + p.source, "font-size=\"14\" font-weight=\"bold\"");
+  svg += text(f.left, 38, std::to_string(p.series.size()) + " series, " + std::to_string(p.groups.size()) + " group" +
+                              (p.groups.size() == 1 ? "" : "s") + ", step " + p.step.iso() +
+                              "; each row is one series, time runs left to right");
+  svg += text(14, f.top + f.plot_h / 2, "series", "font-size=\"12\" text-anchor=\"middle\" transform=\"rotate(-90 14 " +
+                                                      num(f.top + f.plot_h / 2) + ")\"");
+  return svg;
+}
 
-  double y = top;
-  for (std::size_t k = 0; k < p.series.size(); ++k) {
-    const auto& s = p.series[k];
-    if (k > 0 && s.group != p.series[k - 1].group) y += group_gap;
-    const auto& grid = p.groups[s.group].grid;
-    svg += text(left - 6, y + row_h - 3, s.label, "text-anchor=\"end\"");
-    svg += rect(left, y + row_h / 2 - 0.5, plot_w, 1, kFaint);
-    // Counts of each state per pixel column.
-    std::vector<std::array<std::size_t, 3>> counts(columns, {0, 0, 0});
-    for (std::size_t i = 0; i < grid.size(); ++i) {
-      const double x = x_of(grid.at(i)) - left;
-      const std::size_t c = std::min(columns - 1, static_cast<std::size_t>(std::max(0.0, x)));
-      ++counts[c][static_cast<std::size_t>(s.states[i])];
-    }
-    // Columns between a group's points (coarse steps) take the previous point's counts.
-    const double first_x = grid.size() ? x_of(grid.at(0)) - left : 0;
-    const double last_x = grid.size() ? x_of(advance(p.kind, grid.at(grid.size() - 1), p.step, 1)) - left : 0;
-    std::array<std::size_t, 3> carry{0, 0, 0};
-    for (std::size_t c = 0; c < columns; ++c) {
-      const std::size_t total = counts[c][0] + counts[c][1] + counts[c][2];
-      if (total > 0) carry = counts[c];
-      else if (double(c) >= first_x && double(c) < last_x) counts[c] = carry;
-    }
-    // Draw: runs of columns with one pure state as one bar, mixed columns stacked.
-    const char* fills[3] = {kPresent, kValue, "url(#absent)"};
-    for (std::size_t c = 0; c < columns;) {
-      const auto& n = counts[c];
-      const std::size_t total = n[0] + n[1] + n[2];
-      if (total == 0) {
-        ++c;
-        continue;
-      }
-      int pure = -1;
-      for (int st = 0; st < 3; ++st)
-        if (n[st] == total) pure = st;
-      if (pure >= 0) {
-        std::size_t e = c + 1;
-        while (e < columns && counts[e][pure] > 0 && counts[e][pure] == counts[e][0] + counts[e][1] + counts[e][2]) ++e;
-        svg += rect(left + double(c), y, double(e - c), row_h, fills[pure]);
-        c = e;
-        continue;
-      }
-      double yy = y;
-      for (int st = 0; st < 3; ++st) {
-        if (!n[st]) continue;
-        const double h = row_h * double(n[st]) / double(total);
-        svg += rect(left + double(c), yy, 1, h, fills[st]);
-        yy += h;
-      }
-      ++c;
-    }
-    y += row_h + row_gap;
+using StateCounts = std::array<std::size_t, 3>;  ///< points per state (present, missing value, missing record)
+
+/// Counts of each state per pixel column of one series; columns between a
+/// group's points (coarse steps) take the previous point's counts.
+std::vector<StateCounts> column_counts(const DataProfile& p, const SeriesProfile& s, const Frame& f) {
+  const auto& grid = p.groups[s.group].grid;
+  std::vector<StateCounts> counts(f.columns, {0, 0, 0});
+  for (std::size_t i = 0; i < grid.size(); ++i) {
+    const double x = f.x_of(grid.at(i)) - f.left;
+    const std::size_t c = std::min(f.columns - 1, static_cast<std::size_t>(std::max(0.0, x)));
+    ++counts[c][static_cast<std::size_t>(s.states[i])];
   }
+  const double first_x = grid.size() ? f.x_of(grid.at(0)) - f.left : 0;
+  const double last_x = grid.size() ? f.x_of(advance(p.kind, grid.at(grid.size() - 1), p.step, 1)) - f.left : 0;
+  StateCounts carry{0, 0, 0};
+  for (std::size_t c = 0; c < f.columns; ++c) {
+    const std::size_t total = counts[c][0] + counts[c][1] + counts[c][2];
+    if (total > 0) carry = counts[c];
+    else if (double(c) >= first_x && double(c) < last_x) counts[c] = carry;
+  }
+  return counts;
+}
 
-  // Time axis.
-  svg += rect(left, axis_y, plot_w, 1, kText);
-  for (const auto& t : ticks(p.kind, lo, hi, 8)) {
-    const double x = x_of(t.t);
-    svg += rect(x - 0.5, axis_y, 1, 5, kText);
-    svg += rect(x - 0.25, top, 0.5, plot_h, "#e6e6e6");
-    const bool near_end = x > left + plot_w - 3.2 * double(t.label.size());
-    svg += text(near_end ? left + plot_w + right - 4 : x, axis_y + 17, t.label,
+/// One row's bars at height `y`: runs of columns with one pure state as one
+/// bar, mixed columns stacked.
+std::string row_bars(const std::vector<StateCounts>& counts, const Frame& f, double y) {
+  const char* fills[3] = {kPresent, kValue, "url(#absent)"};
+  std::string svg;
+  for (std::size_t c = 0; c < counts.size();) {
+    const auto& n = counts[c];
+    const std::size_t total = n[0] + n[1] + n[2];
+    if (total == 0) {
+      ++c;
+      continue;
+    }
+    int pure = -1;
+    for (int st = 0; st < 3; ++st)
+      if (n[st] == total) pure = st;
+    if (pure >= 0) {
+      std::size_t e = c + 1;
+      while (e < counts.size() && counts[e][pure] > 0 &&
+             counts[e][pure] == counts[e][0] + counts[e][1] + counts[e][2])
+        ++e;
+      svg += rect(f.left + double(c), y, double(e - c), f.row_h, fills[pure]);
+      c = e;
+      continue;
+    }
+    double yy = y;
+    for (int st = 0; st < 3; ++st) {
+      if (!n[st]) continue;
+      const double h = f.row_h * double(n[st]) / double(total);
+      svg += rect(f.left + double(c), yy, 1, h, fills[st]);
+      yy += h;
+    }
+    ++c;
+  }
+  return svg;
+}
+
+std::string time_axis(const DataProfile& p, const Frame& f) {
+  std::string svg = rect(f.left, f.axis_y, f.plot_w, 1, kText);
+  for (const auto& t : ticks(p.kind, f.lo, f.hi, 8)) {
+    const double x = f.x_of(t.t);
+    svg += rect(x - 0.5, f.axis_y, 1, 5, kText);
+    svg += rect(x - 0.25, f.top, 0.5, f.plot_h, "#e6e6e6");
+    const bool near_end = x > f.left + f.plot_w - 3.2 * double(t.label.size());
+    svg += text(near_end ? f.left + f.plot_w + f.right - 4 : x, f.axis_y + 17, t.label,
                 near_end ? "text-anchor=\"end\"" : "text-anchor=\"middle\"");
   }
-  svg += text(left + plot_w / 2, axis_y + 34,
+  svg += text(f.left + f.plot_w / 2, f.axis_y + 34,
               std::string("time (") + (p.kind == TimeKind::Index ? "index" : "as written") + ", step " + p.step.iso() + ")",
               "font-size=\"12\" text-anchor=\"middle\"");
+  return svg;
+}
 
-  // Legend, from the left edge.
+/// The legend, from the left edge.
+std::string legend(const Frame& f) {
+  std::string svg;
   double lx = 14;
-  const std::array<std::pair<const char*, const char*>, 3> legend{{
+  const std::array<std::pair<const char*, const char*>, 3> entries{{
       {kPresent, "value present"},
       {kValue, "missing value (row there, cell empty)"},
       {"url(#absent)", "missing record (no row at that time)"}}};
-  for (const auto& [fill, label] : legend) {
-    svg += rect(lx, legend_y, 22, row_h, fill);
-    svg += "<rect x=\"" + num(lx) + "\" y=\"" + num(legend_y) + "\" width=\"22\" height=\"" + num(row_h) +
+  for (const auto& [fill, label] : entries) {
+    svg += rect(lx, f.legend_y, 22, f.row_h, fill);
+    svg += "<rect x=\"" + num(lx) + "\" y=\"" + num(f.legend_y) + "\" width=\"22\" height=\"" + num(f.row_h) +
            "\" fill=\"none\" stroke=\"#7a7a7a\" stroke-width=\"0.5\"/>\n";
-    svg += text(lx + 28, legend_y + row_h - 3, label);
+    svg += text(lx + 28, f.legend_y + f.row_h - 3, label);
     lx += 28 + double(std::string(label).size()) * 5.9 + 18;
   }
-  svg += rect(lx, legend_y + row_h / 2 - 0.5, 22, 1, kFaint);
-  svg += text(lx + 28, legend_y + row_h - 3, "outside the group's span");
+  svg += rect(lx, f.legend_y + f.row_h / 2 - 0.5, 22, 1, kFaint);
+  svg += text(lx + 28, f.legend_y + f.row_h - 3, "outside the group's span");
+  return svg;
+}
+
+}  // namespace
+
+std::string completeness_svg(const DataProfile& p, const CompletenessStyle& style) {
+  const Frame f = frame_for(p, style);
+  std::string svg = chart_head(p, style, f);
+  double y = f.top;
+  for (std::size_t k = 0; k < p.series.size(); ++k) {
+    const auto& s = p.series[k];
+    if (k > 0 && s.group != p.series[k - 1].group) y += f.group_gap;
+    svg += text(f.left - 6, y + f.row_h - 3, s.label, "text-anchor=\"end\"");
+    svg += rect(f.left, y + f.row_h / 2 - 0.5, f.plot_w, 1, kFaint);
+    svg += row_bars(column_counts(p, s, f), f, y);
+    y += f.row_h + f.row_gap;
+  }
+  svg += time_axis(p, f);
+  svg += legend(f);
   svg += "</svg>\n";
   return svg;
 }

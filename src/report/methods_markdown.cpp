@@ -231,119 +231,143 @@ std::string limitations_section(const ResultSet& results, const Summary& summary
   return out + "\n";
 }
 
+/// The series and the input files.
+std::string data_section(const ResultSet& results) {
+  const auto& ctx = results.context;
+  std::string out = "## Data\n\n";
+  const std::size_t n_series = results.series.is_array() ? results.series.size() : 0;
+  std::set<std::string> sources;
+  if (results.series.is_array())
+    for (const auto& s : results.series) sources.insert(s.value("source", std::string()));
+  out += "The benchmark used " + std::to_string(n_series) + " series from " + std::to_string(sources.size()) +
+         " data file" + (sources.size() == 1 ? "" : "s") + ":\n\n";
+  if (results.series.is_array())
+    for (const auto& s : results.series) {
+      const std::size_t period = s.value("period", 0);
+      out += "- " + markdown_code(s.value("label", std::string())) + " (" + markdown_text(s.value("source", std::string())) + "): " +
+             std::to_string(s.value("points", 0)) + " points, " + std::to_string(s.value("observed", 0)) +
+             " observed, regular step " + s.value("step", std::string()) + " starting " +
+             s.value("start", std::string()) + ", seasonal period " +
+             (period ? std::to_string(period) + " steps" : std::string("none")) + ".\n";
+    }
+  if (ctx.contains("inputs") && ctx["inputs"].is_array() && !ctx["inputs"].empty()) {
+    out += "\nInput files and their SHA-256 digests:";
+    for (const auto& in : ctx["inputs"])
+      out += " `" + in.value("file", std::string()) + "` (`" + in.value("sha256", std::string()) + "`)";
+    out += ".\n";
+  }
+  return out;
+}
+
+/// The schemes with their rates and the methods, in first-seen trial order.
+struct Design {
+  std::vector<std::string> schemes;
+  std::vector<std::vector<double>> rates;  ///< per scheme
+  std::vector<std::string> methods;
+  double max_rate = 0;
+};
+
+Design design_of(const ResultSet& results) {
+  Design d;
+  for (const auto& t : results.trials) {
+    d.max_rate = std::max(d.max_rate, t.rate);
+    std::size_t k = 0;
+    while (k < d.schemes.size() && d.schemes[k] != t.scheme) ++k;
+    if (k == d.schemes.size()) d.schemes.push_back(t.scheme), d.rates.emplace_back();
+    bool seen = false;
+    for (double r : d.rates[k]) seen = seen || r == t.rate;
+    if (!seen) d.rates[k].push_back(t.rate);
+    bool known = false;
+    for (const auto& m : d.methods) known = known || m == t.method;
+    if (!known) d.methods.push_back(t.method);
+  }
+  return d;
+}
+
+/// The schemes and rates, replicates and seeds, the holdout, excluded conditions.
+std::string masking_section(const ResultSet& results, const Summary& summary, const Design& design) {
+  const auto& ctx = results.context;
+  const std::string replicates = ctx.contains("replicates") ? ctx["replicates"].dump() : "?";
+  const std::string seed = ctx.contains("seed") ? ctx["seed"].dump() : "?";
+  const std::size_t holdout = ctx.value("holdout", std::size_t{0});
+  std::string out = "\n## Masking\n\nObserved values were hidden artificially and each method was scored on the hidden "
+                    "points only. The masking schemes and missing rates (fractions of the eligible observed points) "
+                    "were:\n\n";
+  for (std::size_t k = 0; k < design.schemes.size(); ++k) {
+    std::vector<std::string> rs;
+    for (double r : design.rates[k]) rs.push_back(format_double(r));
+    const std::string what = summary_of<MaskScheme>(design.schemes[k]);
+    out += "- " + with_parameters<MaskScheme>(design.schemes[k]) + (what.empty() ? "" : ": " + what) + "; rates " +
+           join(rs) + ".\n";
+  }
+  out += "\nEach combination of series, scheme and rate was repeated in " + replicates +
+         " replicates. The random stream of each replicate was seeded from the experiment seed (" + seed +
+         ") and the replicate's key (series, scheme, rate, replicate number), so the masks do not depend on the "
+         "order of execution, and all methods were applied to the same masked series within a replicate "
+         "(a paired design).";
+  if (holdout)
+    out += " The last " + std::to_string(holdout) + " points of each series were never hidden; they served as "
+           "the forecast holdout.";
+  for (const auto& e : summary.excluded)
+    out += " The condition " + e.scheme + " at rate " + format_double(e.rate) + " of `" + e.series +
+           "` could not be masked (" + e.reason + ") and is left out.";
+  return out + "\n";
+}
+
+/// The methods with their parameters, then the metric columns and the ranking metric.
+std::string methods_and_metrics_sections(const ResultSet& results, const Design& design,
+                                         const std::vector<CitedUse>& uses) {
+  std::string out = "\n## Fill methods\n\nEach method ran with its documented defaults except for the parameters "
+                    "given.\n\n";
+  for (const auto& m : design.methods) {
+    const std::string what = summary_of<FillMethod>(m);
+    const auto name = m.substr(0, m.find(':'));
+    out += "- " + with_parameters<FillMethod>(m) + (what.empty() ? "" : ": " + what) +
+           cite(keys_for(uses, "method", name)) + ".\n";
+  }
+  out += "\n## Metrics\n\n";
+  for (const auto& c : results.columns)
+    out += "- `" + c.name + "` (" + (c.unit.empty() ? std::string("no unit") : c.unit) + ", " +
+           direction_words(c.direction) + "): " + c.summary + cite(keys_for(uses, "metric", c.name)) + ".\n";
+  const auto& rc = results.columns[results.column_index(results.rank_by)];
+  out += "\nMethods were ranked by `" + rc.name + "` (" + direction_words(rc.direction) + ").\n";
+  return out;
+}
+
+/// The build and spec that reproduce the run, then the works cited.
+std::string reproducibility_and_references(const ResultSet& results, const std::vector<CitedUse>& uses) {
+  const auto& ctx = results.context;
+  std::string out = "\n## Reproducibility\n\n";
+  out += "The experiment was run with gapmark " + ctx.value("version", std::string("?")) + " (source commit " +
+         ctx.value("commit", std::string("unknown")) + ") from the spec `" +
+         ctx.value("spec_name", std::string("experiment")) + "` with SHA-256 `" +
+         ctx.value("spec_sha256", std::string("?")) + "`. Running `gapmark run` on the same spec and data "
+         "reproduces every mask and every number reported here; the spec is stored in results.json.\n";
+  const auto keys = cited_keys(uses);
+  if (!keys.empty()) {
+    out += "\n## References\n\n";
+    for (const auto& k : keys)
+      if (const auto* r = find_reference(k)) out += "- [" + k + "] " + r->citation + "\n";
+  }
+  return out;
+}
+
 class MethodsMarkdown final : public Reporter {
 public:
   std::string file_name() const override { return "methods.md"; }
 
   std::string render(const ResultSet& results, const Summary& summary) const override {
-    const auto& ctx = results.context;
     const auto uses = cited_uses(results, summary);
-    const std::size_t rank_col = results.column_index(results.rank_by);
-    const auto& rc = results.columns[rank_col];
+    const Design design = design_of(results);
     std::string out = "# Methods\n\n";
-
-    // Data.
-    out += "## Data\n\n";
-    const std::size_t n_series = results.series.is_array() ? results.series.size() : 0;
-    std::set<std::string> sources;
-    if (results.series.is_array())
-      for (const auto& s : results.series) sources.insert(s.value("source", std::string()));
-    out += "The benchmark used " + std::to_string(n_series) + " series from " + std::to_string(sources.size()) +
-           " data file" + (sources.size() == 1 ? "" : "s") + ":\n\n";
-    if (results.series.is_array())
-      for (const auto& s : results.series) {
-        const std::size_t period = s.value("period", 0);
-        out += "- " + markdown_code(s.value("label", std::string())) + " (" + markdown_text(s.value("source", std::string())) + "): " +
-               std::to_string(s.value("points", 0)) + " points, " + std::to_string(s.value("observed", 0)) +
-               " observed, regular step " + s.value("step", std::string()) + " starting " +
-               s.value("start", std::string()) + ", seasonal period " +
-               (period ? std::to_string(period) + " steps" : std::string("none")) + ".\n";
-      }
-    if (ctx.contains("inputs") && ctx["inputs"].is_array() && !ctx["inputs"].empty()) {
-      out += "\nInput files and their SHA-256 digests:";
-      for (const auto& in : ctx["inputs"])
-        out += " `" + in.value("file", std::string()) + "` (`" + in.value("sha256", std::string()) + "`)";
-      out += ".\n";
-    }
-
-    // Masking.
-    std::vector<std::string> schemes;
-    std::vector<std::vector<double>> rates;
-    std::vector<std::string> methods;
-    double max_rate = 0;
-    for (const auto& t : results.trials) {
-      max_rate = std::max(max_rate, t.rate);
-      std::size_t k = 0;
-      while (k < schemes.size() && schemes[k] != t.scheme) ++k;
-      if (k == schemes.size()) schemes.push_back(t.scheme), rates.emplace_back();
-      bool seen = false;
-      for (double r : rates[k]) seen = seen || r == t.rate;
-      if (!seen) rates[k].push_back(t.rate);
-      bool known = false;
-      for (const auto& m : methods) known = known || m == t.method;
-      if (!known) methods.push_back(t.method);
-    }
-    const std::string replicates = ctx.contains("replicates") ? ctx["replicates"].dump() : "?";
-    const std::string seed = ctx.contains("seed") ? ctx["seed"].dump() : "?";
-    const std::size_t holdout = ctx.value("holdout", std::size_t{0});
-    out += "\n## Masking\n\nObserved values were hidden artificially and each method was scored on the hidden "
-           "points only. The masking schemes and missing rates (fractions of the eligible observed points) were:\n\n";
-    for (std::size_t k = 0; k < schemes.size(); ++k) {
-      std::vector<std::string> rs;
-      for (double r : rates[k]) rs.push_back(format_double(r));
-      const std::string what = summary_of<MaskScheme>(schemes[k]);
-      out += "- " + with_parameters<MaskScheme>(schemes[k]) + (what.empty() ? "" : ": " + what) + "; rates " +
-             join(rs) + ".\n";
-    }
-    out += "\nEach combination of series, scheme and rate was repeated in " + replicates +
-           " replicates. The random stream of each replicate was seeded from the experiment seed (" + seed +
-           ") and the replicate's key (series, scheme, rate, replicate number), so the masks do not depend on the "
-           "order of execution, and all methods were applied to the same masked series within a replicate "
-           "(a paired design).";
-    if (holdout)
-      out += " The last " + std::to_string(holdout) + " points of each series were never hidden; they served as "
-             "the forecast holdout.";
-    for (const auto& e : summary.excluded)
-      out += " The condition " + e.scheme + " at rate " + format_double(e.rate) + " of `" + e.series +
-             "` could not be masked (" + e.reason + ") and is left out.";
-    out += "\n";
-
-    // Methods.
-    out += "\n## Fill methods\n\nEach method ran with its documented defaults except for the parameters given.\n\n";
-    for (const auto& m : methods) {
-      const std::string what = summary_of<FillMethod>(m);
-      const auto name = m.substr(0, m.find(':'));
-      out += "- " + with_parameters<FillMethod>(m) + (what.empty() ? "" : ": " + what) +
-             cite(keys_for(uses, "method", name)) + ".\n";
-    }
-
-    // Metrics.
-    out += "\n## Metrics\n\n";
-    for (const auto& c : results.columns)
-      out += "- `" + c.name + "` (" + (c.unit.empty() ? std::string("no unit") : c.unit) + ", " +
-             direction_words(c.direction) + "): " + c.summary + cite(keys_for(uses, "metric", c.name)) + ".\n";
-    out += "\nMethods were ranked by `" + rc.name + "` (" + direction_words(rc.direction) + ").\n";
-
+    out += data_section(results);
+    out += masking_section(results, summary, design);
+    out += methods_and_metrics_sections(results, design, uses);
     out += analysis_section(results, summary, uses);
     out += results_section(results, summary);
     out += fits_section(summary);
-    out += limitations_section(results, summary, max_rate);
-
-    // Reproducibility.
-    out += "\n## Reproducibility\n\n";
-    out += "The experiment was run with gapmark " + ctx.value("version", std::string("?")) + " (source commit " +
-           ctx.value("commit", std::string("unknown")) + ") from the spec `" +
-           ctx.value("spec_name", std::string("experiment")) + "` with SHA-256 `" +
-           ctx.value("spec_sha256", std::string("?")) + "`. Running `gapmark run` on the same spec and data "
-           "reproduces every mask and every number reported here; the spec is stored in results.json.\n";
-
-    // References.
-    const auto keys = cited_keys(uses);
-    if (!keys.empty()) {
-      out += "\n## References\n\n";
-      for (const auto& k : keys)
-        if (const auto* r = find_reference(k)) out += "- [" + k + "] " + r->citation + "\n";
-    }
+    out += limitations_section(results, summary, design.max_rate);
+    out += reproducibility_and_references(results, uses);
     return out;
   }
 };
