@@ -2,6 +2,7 @@
 
 namespace gapmark {
 
+// long: one stylesheet, kept whole so it reads as CSS.
 const char* report_css() {
   return R"css(
 :root { --ink: #2d3338; --muted: #5f6a71; --paper: #fbfaf7; --card: #ffffff; --line: #dde1e3;
