@@ -123,10 +123,7 @@ struct Kernel {
   }
 
   /// X <- T X T', through the structure.
-  void predict_cov(Mat& x) const {
-    model.transition(x);
-    model.times_transition_transposed(x);
-  }
+  void predict_cov(Mat& x) const { model.predict_covariance(x); }
   /// The diagonal of Q: each state's disturbance variance (0 for the undisturbed).
   Vec noise = [this] {
     Vec q = Vec::Zero(m);
@@ -164,7 +161,7 @@ struct Kernel {
     Mat p_inf = Mat::Identity(m, m);
     Eigen::Index rank = m;
     bool diffuse = true;
-    Vec ms = Vec::Zero(m), mi = Vec::Zero(m);
+    Vec ms = Vec::Zero(m), mi = Vec::Zero(m), scaled = Vec::Zero(m);  // scaled: ms / F, formed once
     LogSum log_f, log_f_inf;
 
     for (std::size_t i = 0; i < steps; ++i) {
@@ -228,7 +225,8 @@ struct Kernel {
         log_f.add(f);
         parts.sum_v2_over_f += v * v / f;
         a += ms * (v / f);
-        p.noalias() -= (ms / f) * ms.transpose();
+        scaled = ms / f;
+        p.noalias() -= scaled * ms.transpose();
         if (rec) {
           rec->kind[i] = StepKind::Regular;
           rec->v[i] = v;

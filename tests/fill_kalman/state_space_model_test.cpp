@@ -4,6 +4,7 @@
 
 #include <cmath>
 #include <numeric>
+#include <vector>
 
 #include "gapmark/fill/state_space.hpp"
 
@@ -55,6 +56,28 @@ TEST_CASE("structured products with T, T' and T^-1, left and right, equal the de
     c = x;
     model.times_transition(c);
     CHECK((c - x * t).cwiseAbs().maxCoeff() < 1e-12);
+  }
+}
+
+TEST_CASE("T P T' in one step equals the dense product and the two structured products to the bit") {
+  std::vector<StructuralModel> all = models();
+  all.push_back(StructuralModel::basic_structural(3));
+  all.push_back(StructuralModel::basic_structural(24));
+  for (const auto& model : all) {
+    CAPTURE(model.name());
+    const auto m = static_cast<Eigen::Index>(model.state_dim());
+    const Eigen::MatrixXd t = model.transition_matrix();
+    const Eigen::MatrixXd a = sample(m, m, 0.25);
+    // symmetric up to round-off, as the filter's covariances are
+    const Eigen::MatrixXd p = a * a.transpose() + 1e-13 * sample(m, m, 2.0);
+    Eigen::MatrixXd u = p;
+    model.predict_covariance(u);
+    const Eigen::MatrixXd dense = t * p * t.transpose();
+    CHECK((u - dense).cwiseAbs().maxCoeff() < 1e-12 * (1 + dense.cwiseAbs().maxCoeff()));
+    Eigen::MatrixXd two_step = p;
+    model.transition(two_step);
+    model.times_transition_transposed(two_step);
+    CHECK(u == two_step);  // every entry, exactly
   }
 }
 

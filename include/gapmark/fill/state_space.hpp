@@ -36,6 +36,7 @@
 // The transition matrices are applied through their structure (O(m^2) per
 // step for state dimension m, no dense m x m products in the main loop), so
 // a filter pass is O(n m^2), and O(n) for the level and trend models.
+#include <algorithm>
 #include <cstddef>
 #include <span>
 #include <string>
@@ -105,6 +106,14 @@ public:
   /// x <- x T.
   template <class D>
   void times_transition(Eigen::MatrixBase<D>& x) const;
+  /// x <- T x T' (a state covariance's prediction): transition(x), then
+  /// times_transition_transposed(x), with the same result to the bit. The
+  /// dummy seasonal's T shifts its states by one and puts minus their sum in
+  /// front, so T x T' is x shifted one place down the diagonal with a new row
+  /// and column built from x's row and column sums: three passes over x where
+  /// the two products take five or six (moving columns one swap at a time).
+  template <class D>
+  void predict_covariance(Eigen::MatrixBase<D>& x) const;
 
   /// Z a: the level, plus the current seasonal effect with a period.
   template <class D>
@@ -128,6 +137,9 @@ private:
   /// The same on each pair of columns of x.
   template <class D>
   void rotate_column_pairs(Eigen::MatrixBase<D>& x, double sign) const;
+  /// predict_covariance for the dummy seasonal (period >= 3, at most 127 states).
+  template <class D>
+  void predict_dummy_covariance(Eigen::MatrixBase<D>& x) const;
 
   bool slope_ = false;
   std::size_t period_ = 0;
@@ -343,6 +355,98 @@ void StructuralModel::times_transition(Eigen::MatrixBase<D>& x) const {
   for (Eigen::Index j = 0; j + 1 < k; ++j) x.col(s0 + j).swap(x.col(s0 + j + 1));
   for (Eigen::Index j = 0; j + 1 < k; ++j) x.col(s0 + j) -= x.col(s0 + k - 1);
   x.col(s0 + k - 1) = -x.col(s0 + k - 1);
+}
+
+template <class D>
+void StructuralModel::predict_covariance(Eigen::MatrixBase<D>& x) const {
+  constexpr int rows = D::RowsAtCompileTime;
+  if constexpr (rows != Eigen::Dynamic && rows < 4) {  // no dummy seasonal of period 3 or more fits
+    transition(x);
+    times_transition_transposed(x);
+    return;
+  } else {
+    if (seasonal_ == 0 || harmonics_ > 0 || seasonal_ < 2 || x.rows() > 128) {  // 128: the scratch below
+      transition(x);
+      times_transition_transposed(x);
+      return;
+    }
+    predict_dummy_covariance(x);
+  }
+}
+
+template <class D>
+void StructuralModel::predict_dummy_covariance(Eigen::MatrixBase<D>& x) const {
+  // U = T X T' written out entry by entry, each computed by the same
+  // operations in the same order as transition(x) followed by
+  // times_transition_transposed(x) (so the filter's results do not change
+  // by a bit; X need not be exactly symmetric). With A = T X:
+  //   A row s0 = minus each seasonal column's sum, A row s0+i = X row s0+i-1,
+  //   A row 0 = X row 0 + X row 1 (with a slope);
+  // and U = A T': U column s0 = minus the sum of A's seasonal columns (last
+  // first, then s0, s0+1, ...), U column s0+j = A column s0+j-1, U column 0 =
+  // A column 0 + A column 1 (with a slope).
+  using Eigen::Index;
+  const Index m = x.rows(), k = static_cast<Index>(seasonal_), s0 = static_cast<Index>(seasonal_start());
+  const Index last = s0 + k - 1;
+  Eigen::Matrix<double, Eigen::Dynamic, 1, 0, 128, 1> sums(m), rows(m), level_row(k), slope_row(k);
+  // each column's sum over the seasonal rows, in row order (all columns side
+  // by side: one chain of additions per column, none waiting on another)
+  sums.setZero();
+  for (Index j = 0; j < k; ++j)
+    for (Index c = 0; c < m; ++c) sums(c) += x(s0 + j, c);
+  rows = x.col(last);  // each row's sum over the seasonal columns, last column first
+  for (Index j = 0; j + 1 < k; ++j) rows += x.col(s0 + j);
+  double total = sums(last);  // A row s0 summed the same way (the negations cancel exactly)
+  for (Index j = 0; j + 1 < k; ++j) total += sums(s0 + j);
+  double level_total = 0;  // A row 0 (level plus slope) summed the same way
+  if (slope_) {
+    level_total = x(0, last) + x(1, last);
+    for (Index j = 0; j + 1 < k; ++j) level_total += x(0, s0 + j) + x(1, s0 + j);
+  } else {
+    level_total = rows(0);
+  }
+  for (Index j = 0; j < k; ++j) {
+    level_row(j) = x(0, s0 + j);
+    slope_row(j) = slope_ ? x(1, s0 + j) : 0.0;
+  }
+  // the level and slope columns of the seasonal rows, before the shift
+  Eigen::Matrix<double, Eigen::Dynamic, 1, 0, 128, 1> level_col(k), slope_col(k);
+  for (Index i = 0; i < k; ++i) {
+    level_col(i) = x(s0 + i, 0);
+    slope_col(i) = slope_ ? x(s0 + i, 1) : 0.0;
+  }
+  // seasonal block: U(s0+i, s0+j) = X(s0+i-1, s0+j-1), last column first
+  for (Index j = k - 1; j >= 1; --j) x.col(s0 + j).segment(s0 + 1, k - 1) = x.col(s0 + j - 1).segment(s0, k - 1);
+  // g_1's row and column
+  x(s0, s0) = total;
+  for (Index j = 1; j < k; ++j) {
+    x(s0, s0 + j) = -sums(s0 + j - 1);
+    x(s0 + j, s0) = -rows(s0 + j - 1);
+  }
+  if (slope_) {
+    const double p00 = x(0, 0), p01 = x(0, 1), p10 = x(1, 0), p11 = x(1, 1);
+    x(0, s0) = -level_total;
+    x(1, s0) = -rows(1);
+    x(s0, 0) = -sums(0) + -sums(1);
+    x(s0, 1) = -sums(1);
+    for (Index j = 1; j < k; ++j) {
+      x(0, s0 + j) = level_row(j - 1) + slope_row(j - 1);
+      x(1, s0 + j) = slope_row(j - 1);
+      x(s0 + j, 0) = level_col(j - 1) + slope_col(j - 1);
+      x(s0 + j, 1) = slope_col(j - 1);
+    }
+    x(0, 0) = (p00 + p10) + (p01 + p11);
+    x(0, 1) = p01 + p11;
+    x(1, 0) = p10 + p11;
+    x(1, 1) = p11;
+  } else {
+    x(0, s0) = -level_total;
+    x(s0, 0) = -sums(0);
+    for (Index j = 1; j < k; ++j) {
+      x(0, s0 + j) = level_row(j - 1);
+      x(s0 + j, 0) = level_col(j - 1);
+    }
+  }
 }
 
 }  // namespace gapmark::state_space
