@@ -282,12 +282,14 @@ double LikelihoodParts::concentrated_log_likelihood() const {
 LikelihoodParts filter_likelihood(const StructuralModel& model, std::span<const double> y,
                                   std::span<const double> variances) {
   check_variances(model, variances);
-  switch (model.state_dim()) {  // fixed sizes for the level, trend and 1-3 harmonics (or periods 3, 5, 7)
+  switch (model.state_dim()) {  // fixed sizes for the level, trend and 1-5 harmonics (or periods 3, 5, 7, 9, 11)
     case 1: return Kernel<1>{model, variances}.forward(y, nullptr);
     case 2: return Kernel<2>{model, variances}.forward(y, nullptr);
     case 4: return Kernel<4>{model, variances}.forward(y, nullptr);
     case 6: return Kernel<6>{model, variances}.forward(y, nullptr);
     case 8: return Kernel<8>{model, variances}.forward(y, nullptr);
+    case 10: return Kernel<10>{model, variances}.forward(y, nullptr);
+    case 12: return Kernel<12>{model, variances}.forward(y, nullptr);
     default: return Kernel<Eigen::Dynamic>{model, variances}.forward(y, nullptr);
   }
 }
