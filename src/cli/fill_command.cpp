@@ -137,8 +137,9 @@ void add_fill(CLI::App& app, Action& action) {
       if (!o->fit.empty()) write_file_atomically(o->fit, fits_json(method.label, result.reports).dump(2) + "\n");
       write_file_atomically(o->out, csv);
       if (table.added_rows > 0)
-        std::cerr << "added " << table.added_rows << " rows for the " << table.axis.step().iso()
-                  << " steps the file had no row for (their values were missing)\n";
+        std::cerr << "added " << table.added_rows << (table.added_rows == 1 ? " row for the " : " rows for the ")
+                  << table.axis.step().iso() << (table.added_rows == 1 ? " step" : " steps")
+                  << " the file had no row for (their values were missing)\n";
       for (const auto& r : result.reports) {
         if (r.missing == 0) {
           std::cerr << r.column << ": no missing points\n";
@@ -150,6 +151,8 @@ void add_fill(CLI::App& app, Action& action) {
         }
         if (!o->fit.empty() && !r.fit.empty()) std::cerr << "  fit: " << fit_line(r.fit) << "\n";
         if (r.unfilled() > 0) std::cerr << "warning: " << unfilled_message(r, method) << "\n";
+        if (const std::string range = out_of_range_message(r, method); !range.empty())
+          std::cerr << "note: " << range << "\n";
       }
       if (unfilled > 0)
         std::cerr << "wrote " << o->out << " with " << unfilled << (unfilled == 1 ? " point" : " points")

@@ -1,5 +1,6 @@
 #include "gapmark/fill/fill_table.hpp"
 
+#include <algorithm>
 #include <cmath>
 
 #include "gapmark/error.hpp"
@@ -44,6 +45,24 @@ std::string unfilled_hint(const Bound<FillMethod>& method) {
   return "try another method (gapmark methods lists them)";
 }
 
+/// The observed range of `given`, and where the fills of its gaps fall against it.
+void note_range(const std::vector<double>& given, const std::vector<double>& filled, FillTableReport& report) {
+  double low = INFINITY, high = -INFINITY, fill_low = INFINITY, fill_high = -INFINITY;
+  for (double v : given)
+    if (!std::isnan(v)) low = std::min(low, v), high = std::max(high, v);
+  for (std::size_t i = 0; i < filled.size(); ++i) {
+    if (!std::isnan(given[i]) || std::isnan(filled[i])) continue;
+    fill_low = std::min(fill_low, filled[i]);
+    fill_high = std::max(fill_high, filled[i]);
+    report.outside += filled[i] < low || filled[i] > high ? 1 : 0;
+  }
+  if (low > high) low = high = std::nan("");
+  report.observed_low = low;
+  report.observed_high = high;
+  report.fill_low = fill_low;
+  report.fill_high = fill_high;
+}
+
 }  // namespace
 
 FillTableOutput fill_table(WideTable& table, const std::vector<std::size_t>& columns,
@@ -76,6 +95,7 @@ FillTableOutput fill_table(WideTable& table, const std::vector<std::size_t>& col
       report.clipped = fill.clipped;
       report.fit = fill.fit;
       report.draws = fill.draws;
+      note_range(given, fill.values, report);
       for (std::size_t i = 0; i < fill.values.size(); ++i) {
         if (!std::isnan(given[i]) || std::isnan(fill.values[i])) continue;
         table.values[c][i] = fill.values[i];
@@ -106,6 +126,22 @@ std::string unfilled_message(const FillTableReport& report, const Bound<FillMeth
     return line + "; " + (hint.empty() ? "try another method (gapmark methods lists them)" : hint);
   }
   return line + "; " + unfilled_hint(method);
+}
+
+std::string out_of_range_message(const FillTableReport& report, const Bound<FillMethod>& method) {
+  if (report.outside == 0) return "";
+  const std::string low = short_number(report.observed_low), high = short_number(report.observed_high);
+  const std::string n = std::to_string(report.filled);
+  const std::string which = report.outside < report.filled ? std::to_string(report.outside) + " of the " + n + " fills"
+                            : report.filled == 1            ? std::string("the one fill")
+                                                            : "all " + n + " fills";
+  const std::string span = report.fill_low == report.fill_high
+                               ? short_number(report.fill_low)
+                               : "from " + short_number(report.fill_low) + " to " + short_number(report.fill_high);
+  return "column '" + report.column + "': " + which + " of " + method.label + (report.outside == 1 ? " lies" : " lie") +
+         " outside the observed range " + low + " to " + high + " (fills " + span + "); the method parameter bounds=" +
+         low + "," + high + " keeps fills in that range, transform=log (values > 0) or transform=log1p (values >= 0) "
+         "fills on a log scale";
 }
 
 }  // namespace gapmark

@@ -43,7 +43,7 @@ expect_fail 2 "irregular.csv:7: irregular time step.*give --step" -- "$GAPMARK" 
 "$GAPMARK" fill irregular.csv --method linear --step P1D --out stepped.csv 2>stepped.log
 check "--step adds the missing row" grep -q "^2026-01-06,7.66666666666666[67],1$" stepped.csv
 check "--step keeps every grid time" test "$(wc -l <stepped.csv)" -eq 9
-check "--step says how many rows it added" grep -q "added 1 rows" stepped.log
+check "--step says how many rows it added" grep -q "added 1 row for the P1D step the file had no row for" stepped.log
 expect_fail 2 "irregular.csv:3: time 2026-01-02 is not on the P2D grid" \
   -- "$GAPMARK" fill irregular.csv --method linear --step P2D --out x.csv
 
@@ -55,4 +55,18 @@ check "variance is positive" test "$(awk -F, 'NR>1 && $3==1 && !($4>0)' var.csv 
 "$GAPMARK" fill one.csv --method linear --variance --out novar.csv 2>novar.log
 check "an empty variance column for a method without one" test "$(cut -d, -f4 novar.csv | sort -u | tr '\n' '|')" = "|ozone_variance|"
 check "and it says so" grep -q "linear gives no variance" novar.log
+
+# fills outside the observed range: a note with the generic ways to keep them
+# in. The natural cubic spline through (1,0) (2,5) (3,10) (5,10) (6,5) (7,0)
+# is 370/31 = 11.935... at t = 4 (scipy.interpolate.CubicSpline, bc_type="natural").
+printf 'time,level\n2026-01-01,0\n2026-01-02,5\n2026-01-03,10\n2026-01-04,\n2026-01-05,10\n2026-01-06,5\n2026-01-07,0\n' >peak.csv
+"$GAPMARK" fill peak.csv --method natural-spline --out peak_ns.csv 2>peak_ns.log
+check "the spline overshoots the peak" grep -q "^2026-01-04,11.9354838709677[0-9]*,1$" peak_ns.csv
+check "a note names the range and the way out" \
+  grep -q "^note: column 'level': the one fill of natural-spline lies outside the observed range 0 to 10 (fills 11.94); the method parameter bounds=0,10 keeps" peak_ns.log
+"$GAPMARK" fill peak.csv --method natural-spline:bounds=0,10 --out peak_b.csv 2>peak_b.log
+check "bounds=0,10 clips the fill to 10" grep -q "^2026-01-04,10,1$" peak_b.csv
+check "and no note then" bash -c '! grep -q "^note:" peak_b.log'
+"$GAPMARK" fill peak.csv --method linear --out peak_l.csv 2>peak_l.log
+check "no note for fills inside the range" bash -c '! grep -q "^note:" peak_l.log'
 finish

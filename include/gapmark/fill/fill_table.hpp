@@ -23,6 +23,10 @@ struct FillTableReport {
   std::vector<std::vector<double>> draws;
   UnmetNeed need = UnmetNeed::None;  ///< the unmet need, when that was the failure
   bool variance = false;      ///< the method gave a predictive variance for this column
+  /// The observed range and the fills outside it (NaN bounds: nothing observed).
+  double observed_low = 0, observed_high = 0;
+  std::size_t outside = 0;           ///< filled points below observed_low or above observed_high
+  double fill_low = 0, fill_high = 0;  ///< the lowest and highest fill (when filled > 0)
   std::size_t unfilled() const { return missing - filled; }
 };
 
@@ -50,5 +54,9 @@ std::string points_in_gaps(std::size_t points, std::size_t gaps);
 /// One line on a column `gapmark fill` left (partly) unfilled: how much, why,
 /// and a hint that fits the method and the command line.
 std::string unfilled_message(const FillTableReport& report, const Bound<FillMethod>& method);
+
+/// One line on a column whose fills leave its observed range, with the generic
+/// ways to keep them in; empty when every fill lies inside it.
+std::string out_of_range_message(const FillTableReport& report, const Bound<FillMethod>& method);
 
 }  // namespace gapmark
