@@ -64,11 +64,9 @@ std::vector<Tally> tally(const std::vector<const CellGroup*>& groups) {
 }
 
 std::string value_with_interval(const MetricSummary& s, double alpha) {
-  std::string out = short_number(s.mean);
-  if (std::isfinite(s.ci_low))
-    out += " (" + short_number(100 * (1 - alpha)) + "% bootstrap interval " + short_number(s.ci_low) + " to " +
-           short_number(s.ci_high) + ")";
-  return out;
+  if (!std::isfinite(s.ci_low)) return short_number(s.mean);
+  const RoundedInterval r = rounded_interval(s.mean, s.ci_low, s.ci_high);
+  return r.value + " (" + short_number(100 * (1 - alpha)) + "% bootstrap interval " + r.low + " to " + r.high + ")";
 }
 
 /// How a method stands in one condition, in words.
@@ -79,7 +77,7 @@ std::string standing_words(const CellGroup& g, const MethodSummary& m, const std
     std::string out = "smaller " + rank_by + " than " + best.method + " in most replicates (paired signed-rank test)";
     if (std::isfinite(m.relative_difference))
       out += " though its mean " + rank_by + " is " + (m.relative_difference >= 0 ? "higher by " : "lower by ") +
-             percent(std::abs(m.relative_difference));
+             rounded_percent(std::abs(m.relative_difference));
     return out;
   }
   std::string out = standing_name(m.standing);
@@ -88,7 +86,7 @@ std::string standing_words(const CellGroup& g, const MethodSummary& m, const std
   else
     out += std::string(m.standing == Standing::Worse ? " than " : " from ") + best.method;
   if (std::isfinite(m.relative_difference))
-    out += ", " + std::string(m.relative_difference >= 0 ? "+" : "") + percent(m.relative_difference) + " " + rank_by;
+    out += ", " + signed_percent(m.relative_difference) + " " + rank_by;
   return out;
 }
 
@@ -150,7 +148,7 @@ SeriesVerdict decide_series(const std::string& series, const std::vector<const C
   if (counted)
     v.reasons.push_back(
         std::string(direction == Direction::Lower ? "Its " + rank_by + " is " : "It is ") +
-        percent(std::abs(gain / static_cast<double>(counted))) +
+        rounded_percent(std::abs(gain / static_cast<double>(counted))) +
         (gain >= 0 ? (direction == Direction::Lower ? " lower" : " better") : (direction == Direction::Lower ? " higher" : " worse")) +
         " than the `" + baseline + "` baseline's" + (counted > 1 ? " (mean over " + std::to_string(counted) + " conditions)" : "") +
         ".");

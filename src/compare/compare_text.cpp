@@ -16,11 +16,6 @@ std::string signed_number(double v) {
   return (v > 0 ? "+" : "") + short_number(v);
 }
 
-std::string signed_percent(double v) {
-  if (!std::isfinite(v)) return "n/a";
-  return (v > 0 ? "+" : "") + short_number(100 * v) + "%";
-}
-
 /// Columns padded to their widest cell: the first two and the last left-aligned, numbers between them right.
 std::string text_table(const std::vector<std::string>& header, const std::vector<std::vector<std::string>>& rows) {
   return gapmark::text_table(header, rows, {.right_from = 2, .right_until = header.size() - 1, .rule = true});

@@ -1,11 +1,47 @@
 #include "gapmark/number_format.hpp"
 
+#include <algorithm>
 #include <array>
 #include <charconv>
 #include <cmath>
 #include <cstdio>
 
 namespace gapmark {
+
+int supported_decimals(double low, double high) {
+  const double width = high - low;
+  const double scale = std::max(std::abs(low), std::abs(high));
+  if (!std::isfinite(width) || !(width > 1e-9 * scale) || width <= 0) return -1;
+  return std::clamp(1 - static_cast<int>(std::floor(std::log10(width))), 0, 15);
+}
+
+std::string fixed_number(double value, int decimals) {
+  if (decimals < 0 || !std::isfinite(value)) return short_number(value);
+  char buffer[64];
+  std::snprintf(buffer, sizeof buffer, "%.*f", decimals, value);
+  std::string text = buffer;
+  if (text.size() > 24) return short_number(value);  // a huge value: the exponent form reads better
+  if (text.front() == '-' && text.find_first_not_of("-0.") == std::string::npos) text.erase(0, 1);
+  return text;
+}
+
+RoundedInterval rounded_interval(double value, double low, double high) {
+  const int decimals = supported_decimals(low, high);
+  return {fixed_number(value, decimals), fixed_number(low, decimals), fixed_number(high, decimals)};
+}
+
+std::string rounded_percent(double share) {
+  if (!std::isfinite(share)) return "n/a";
+  const double p = 100 * share;
+  const double size = std::abs(p);
+  const int decimals = size >= 10 || size == 0 ? 0 : std::clamp(1 - static_cast<int>(std::floor(std::log10(size))), 0, 15);
+  return fixed_number(p, decimals) + "%";
+}
+
+std::string signed_percent(double share) {
+  if (!std::isfinite(share)) return "n/a";
+  return (share > 0 ? "+" : "") + rounded_percent(share);
+}
 
 std::string format_double(double value) {
   if (std::isnan(value)) return "nan";

@@ -25,7 +25,7 @@ std::string phase_name(const std::string& unit, int phase) {
 }
 
 std::string share(std::size_t part, std::size_t whole) {
-  return whole ? percent(double(part) / double(whole)) : "n/a";
+  return whole ? rounded_percent(double(part) / double(whole)) : "n/a";
 }
 
 std::string time_at(const GroupProfile& g, std::size_t i) { return g.grid.size() ? g.grid.format(i) : ""; }

@@ -49,7 +49,7 @@ KindGuess guess_kind(std::span<const double> values, std::size_t event_rows) {
   const double zeros = double(std::count(x.begin(), x.end(), 0.0)) / double(x.size());
   if (non_negative && zeros >= 0.3) {
     g.kind = VariableKind::Count;
-    g.reason = "non-negative, " + percent(zeros) + " exact zeros";
+    g.reason = "non-negative, " + rounded_percent(zeros) + " exact zeros";
     return g;
   }
   if (non_negative && event_rows > 0) {
@@ -59,7 +59,7 @@ KindGuess guess_kind(std::span<const double> values, std::size_t event_rows) {
   }
   g.reason = std::string(whole && non_negative ? "non-negative whole numbers, but whole numbers alone do not make a count"
                                                : "no sign of a count") +
-             " (" + percent(zeros) + " exact zeros, no event rows)";
+             " (" + rounded_percent(zeros) + " exact zeros, no event rows)";
   return g;
 }
 

@@ -120,8 +120,8 @@ std::vector<QuickRisk> quick_risks(const QuickSetup& setup, const ResultSet& res
   for (const auto& c : gap_clusters(setup))
     risks.push_back({"clustered-gaps",
                      "the real gaps of " + c.series + " cluster: " + c.window + " is " +
-                         percent(double(c.missing) / double(c.points)) + " missing (" + std::to_string(c.missing) + " of " +
-                         std::to_string(c.points) + ") against " + percent(c.overall) +
+                         rounded_percent(double(c.missing) / double(c.points)) + " missing (" + std::to_string(c.missing) + " of " +
+                         std::to_string(c.points) + ") against " + rounded_percent(c.overall) +
                          " overall; the masks spread their gaps over the whole series and do not reproduce such a stretch",
                      "read the ranking as one for scattered gaps; a long outage may need a method that uses other columns "
                      "(low-rank) or no fill at all"});

@@ -105,7 +105,7 @@ std::string quick_plan_text(const QuickSetup& setup, const QuickRequest& request
   for (const auto& s : setup.profile.series) {
     if (s.variable != setup.column) continue;
     rows.push_back({s.label, std::to_string(s.expected), std::to_string(s.missing()),
-                    percent(double(s.missing()) / double(std::max<std::size_t>(s.expected, 1))),
+                    rounded_percent(double(s.missing()) / double(std::max<std::size_t>(s.expected, 1))),
                     std::to_string(s.gap_count), std::to_string(s.longest_gap)});
   }
   out += aligned_table({"series", "points", "missing", "share", "gaps", "longest gap"}, rows, 1);
@@ -114,7 +114,7 @@ std::string quick_plan_text(const QuickSetup& setup, const QuickRequest& request
                            : " (guessed: " + setup.kind_reason + "; give --kind count|level|smooth to set it)") + "\n";
   out += "Masks: " + std::string(plan.replay ? "replay (the real gaps' lengths and start phases), " : "") +
          "blocks (mean length " + short_number(plan.spec["schemes"][plan.replay ? 1 : 0]["length_mean"].get<double>()) +
-         "), random; rate " + short_number(plan.mask_rate) + " (observed missing share " + percent(plan.observed_missing) +
+         "), random; rate " + short_number(plan.mask_rate) + " (observed missing share " + rounded_percent(plan.observed_missing) +
          ", clamped to [0.05, 0.5])" + (plan.replay ? "" : "; no real gaps to replay") + "\n";
   std::string methods;
   for (const auto& m : plan.methods) methods += (methods.empty() ? "" : ", ") + m;

@@ -12,17 +12,4 @@ std::string aligned_table(const std::vector<std::string>& header, const std::vec
   return text_table(header, rows, {.right_from = first_numeric, .indent = indent});
 }
 
-std::string percent(double share) {
-  if (!std::isfinite(share)) return "n/a";
-  const double p = share * 100;
-  char buf[32];
-  if (p == 0 || p >= 10 || p == 100)
-    std::snprintf(buf, sizeof buf, "%.0f%%", p);
-  else if (p >= 1)
-    std::snprintf(buf, sizeof buf, "%.1f%%", p);
-  else
-    std::snprintf(buf, sizeof buf, "%.2f%%", p);
-  return buf;
-}
-
 }  // namespace gapmark::data

@@ -134,15 +134,18 @@ std::string results_section(const ResultSet& results, const Summary& summary) {
       const auto& best = g.methods.front();
       const auto& s = best.metrics[rank_col];
       out += "- " + g.scheme + ", rate " + format_double(g.rate) + " (" + std::to_string(g.replicates) +
-             " replicates): best `" + best.method + "`, mean " + rc.name + " " + short_number(s.mean);
-      if (std::isfinite(s.ci_low)) out += " (" + level + "% interval " + short_number(s.ci_low) + " to " + short_number(s.ci_high) + ")";
-      out += "; margin ±" + short_number(g.margin) + ".";
+             " replicates): best `" + best.method + "`, mean " + rc.name + " ";
+      const int decimals = std::isfinite(s.ci_low) ? supported_decimals(s.ci_low, s.ci_high) : -1;
+      out += fixed_number(s.mean, decimals);
+      if (std::isfinite(s.ci_low))
+        out += " (" + level + "% interval " + fixed_number(s.ci_low, decimals) + " to " + fixed_number(s.ci_high, decimals) + ")";
+      out += "; margin ±" + fixed_number(g.margin, decimals) + ".";
       std::map<Standing, std::vector<std::string>> by;
       for (std::size_t i = 1; i < g.methods.size(); ++i) {
         const auto& m = g.methods[i];
         std::string item = markdown_code(m.method);
         if (std::isfinite(m.relative_difference))
-          item += " (" + std::string(m.relative_difference >= 0 ? "+" : "") + percent(m.relative_difference) + ")";
+          item += " (" + signed_percent(m.relative_difference) + ")";
         if (m.failures) item += " (failed " + std::to_string(m.failures) + " of " + std::to_string(m.trials) + ")";
         by[m.standing].push_back(item);
       }

@@ -8,23 +8,6 @@
 
 namespace gapmark {
 
-int supported_decimals(double low, double high) {
-  const double width = high - low;
-  const double scale = std::max(std::abs(low), std::abs(high));
-  if (!std::isfinite(width) || !(width > 1e-9 * scale) || width <= 0) return -1;
-  return std::clamp(1 - static_cast<int>(std::floor(std::log10(width))), 0, 15);
-}
-
-std::string fixed_number(double value, int decimals) {
-  if (decimals < 0 || !std::isfinite(value)) return short_number(value);
-  char buffer[64];
-  std::snprintf(buffer, sizeof buffer, "%.*f", decimals, value);
-  std::string text = buffer;
-  if (text.size() > 24) return short_number(value);  // a huge value: the exponent form reads better
-  if (text.front() == '-' && text.find_first_not_of("-0.") == std::string::npos) text.erase(0, 1);
-  return text;
-}
-
 namespace {
 
 /// The decimals of a summary: from its interval, or from ±2 sd without one.

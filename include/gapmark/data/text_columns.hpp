@@ -13,7 +13,5 @@ namespace gapmark::data {
 std::string aligned_table(const std::vector<std::string>& header, const std::vector<std::vector<std::string>>& rows,
                           std::size_t first_numeric, std::size_t indent = 2);
 
-/// A share as a percentage for people: "0%", "0.4%", "12%", "100%".
-std::string percent(double share);
 
 }  // namespace gapmark::data

@@ -9,14 +9,6 @@
 
 namespace gapmark {
 
-/// Decimal places that show an interval [low, high] with two significant
-/// digits of its width: the precision the replicates support. -1 when the
-/// width is zero, not finite, or below 1e-9 of the values (numerical noise);
-/// then four significant digits are shown instead.
-int supported_decimals(double low, double high);
-/// `value` with `decimals` places ("0.0637"), or short_number when decimals < 0;
-/// never "-0".
-std::string fixed_number(double value, int decimals);
 /// "mean ± sd" rounded to what the interval supports (supported_decimals; an
 /// sd below that precision shows as 0), or "mean" when sd is undefined; "n/a"
 /// without a mean.
