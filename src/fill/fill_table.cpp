@@ -46,7 +46,8 @@ std::string unfilled_hint(const Bound<FillMethod>& method) {
 }
 
 /// The observed range of `given`, and where the fills of its gaps fall against it.
-void note_range(const std::vector<double>& given, const std::vector<double>& filled, FillTableReport& report) {
+void note_range(const std::vector<double>& given, const std::vector<double>& filled,
+                const std::vector<std::vector<double>>& draws, FillTableReport& report) {
   double low = INFINITY, high = -INFINITY, fill_low = INFINITY, fill_high = -INFINITY;
   for (double v : given)
     if (!std::isnan(v)) low = std::min(low, v), high = std::max(high, v);
@@ -56,6 +57,12 @@ void note_range(const std::vector<double>& given, const std::vector<double>& fil
     fill_high = std::max(fill_high, filled[i]);
     report.outside += filled[i] < low || filled[i] > high ? 1 : 0;
   }
+  for (const auto& draw : draws)
+    for (std::size_t i = 0; i < draw.size() && i < given.size(); ++i) {
+      if (!std::isnan(given[i]) || std::isnan(draw[i])) continue;
+      ++report.drawn;
+      report.drawn_outside += draw[i] < low || draw[i] > high ? 1 : 0;
+    }
   if (low > high) low = high = std::nan("");
   report.observed_low = low;
   report.observed_high = high;
@@ -95,7 +102,7 @@ FillTableOutput fill_table(WideTable& table, const std::vector<std::size_t>& col
       report.clipped = fill.clipped;
       report.fit = fill.fit;
       report.draws = fill.draws;
-      note_range(given, fill.values, report);
+      note_range(given, fill.values, fill.draws, report);
       for (std::size_t i = 0; i < fill.values.size(); ++i) {
         if (!std::isnan(given[i]) || std::isnan(fill.values[i])) continue;
         table.values[c][i] = fill.values[i];
@@ -129,19 +136,30 @@ std::string unfilled_message(const FillTableReport& report, const Bound<FillMeth
 }
 
 std::string out_of_range_message(const FillTableReport& report, const Bound<FillMethod>& method) {
-  if (report.outside == 0) return "";
+  if (report.outside == 0 && report.drawn_outside == 0) return "";
   const std::string low = short_number(report.observed_low), high = short_number(report.observed_high);
-  const std::string n = std::to_string(report.filled);
-  const std::string which = report.outside < report.filled ? std::to_string(report.outside) + " of the " + n + " fills"
-                            : report.filled == 1            ? std::string("the one fill")
-                                                            : "all " + n + " fills";
-  const std::string span = report.fill_low == report.fill_high
-                               ? short_number(report.fill_low)
-                               : "from " + short_number(report.fill_low) + " to " + short_number(report.fill_high);
-  return "column '" + report.column + "': " + which + " of " + method.label + (report.outside == 1 ? " lies" : " lie") +
-         " outside the observed range " + low + " to " + high + " (fills " + span + "); the method parameter bounds=" +
-         low + "," + high + " keeps fills in that range, transform=log (values > 0) or transform=log1p (values >= 0) "
-         "fills on a log scale";
+  std::string line = "column '" + report.column + "': ";
+  if (report.outside > 0) {
+    const std::string n = std::to_string(report.filled);
+    const std::string which = report.outside < report.filled ? std::to_string(report.outside) + " of the " + n + " fills"
+                              : report.filled == 1            ? std::string("the one fill")
+                                                              : "all " + n + " fills";
+    const std::string span = report.fill_low == report.fill_high
+                                 ? short_number(report.fill_low)
+                                 : "from " + short_number(report.fill_low) + " to " + short_number(report.fill_high);
+    line += which + " of " + method.label + (report.outside == 1 ? " lies" : " lie") + " outside the observed range " +
+            low + " to " + high + " (fills " + span + ")";
+    if (report.drawn_outside > 0)
+      line += ", and " + std::to_string(report.drawn_outside) + " of the " + std::to_string(report.drawn) + " drawn values";
+  } else {
+    line += std::to_string(report.drawn_outside) + " of the " + std::to_string(report.drawn) + " drawn values of " +
+            method.label + (report.drawn_outside == 1 ? " lies" : " lie") + " outside the observed range " + low + " to " +
+            high;
+  }
+  line += "; the method parameter bounds=" + low + "," + high + " keeps fills in that range";
+  if (has_param(method, "transform") && method.params.text("transform") == "none")
+    line += ", transform=log (values > 0) or transform=log1p (values >= 0) fills on a log scale";
+  return line;
 }
 
 }  // namespace gapmark

@@ -137,7 +137,7 @@ TEST_CASE("under-powered: 7 replicates and 6 methods cannot show any difference;
   CHECK(v->equally_good.empty());
   CHECK(mentions(v->caveats, "too few for the paired tests"));
   // The gain over the mean baseline: 1 against 6, 83% lower.
-  CHECK(mentions(v->reasons, "83.33% lower than the `mean` baseline"));
+  CHECK(mentions(v->reasons, "83% lower than the `mean` baseline"));
   // results.json carries the warning and the verdict.
   const auto j = results_to_json(rs, s);
   bool warned = false;

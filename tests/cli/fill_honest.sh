@@ -69,4 +69,18 @@ check "bounds=0,10 clips the fill to 10" grep -q "^2026-01-04,10,1$" peak_b.csv
 check "and no note then" bash -c '! grep -q "^note:" peak_b.log'
 "$GAPMARK" fill peak.csv --method linear --out peak_l.csv 2>peak_l.log
 check "no note for fills inside the range" bash -c '! grep -q "^note:" peak_l.log'
+
+# draws outside the observed range get the note too: kalman draws for ozone
+# (R's airquality, reference/airquality/export_airquality.R; observed 1 to 168)
+# fall below zero here and there; on the log scale they cannot.
+AQ=$SRC/reference/airquality/airquality.csv
+"$GAPMARK" fill "$AQ" --column ozone --method kalman --draws 5 --seed 7 --out aq_draws.csv 2>aq_draws.log
+below=$(awk -F, 'NR==1 {for (i = 1; i <= NF; i++) if ($i ~ /^ozone_draw_/) d[i] = 1; next} {for (i in d) if ($i != "" && $i < 1) n++} END {print n + 0}' aq_draws.csv)
+check "some kalman draws fall below the observed minimum" test "$below" -gt 0
+check "the note counts the drawn values outside the range" \
+  grep -q "^note: column 'ozone': $below of the 185 drawn values of kalman:draws=5 lie outside the observed range 1 to 168" aq_draws.log
+"$GAPMARK" fill "$AQ" --column ozone --method kalman:transform=log --draws 5 --seed 7 --out aq_log.csv 2>aq_log.log
+check "no draw below zero on the log scale" \
+  test "$(awk -F, 'NR == 1 {for (i = 1; i <= NF; i++) if ($i ~ /^ozone_draw_/) d[i] = 1; next} {for (i in d) if ($i != "" && $i <= 0) n++} END {print n + 0}' aq_log.csv)" -eq 0
+check "no transform advice for a method that has one" bash -c '! grep -q "transform=log (values" aq_log.log'
 finish

@@ -27,6 +27,8 @@ struct FillTableReport {
   double observed_low = 0, observed_high = 0;
   std::size_t outside = 0;           ///< filled points below observed_low or above observed_high
   double fill_low = 0, fill_high = 0;  ///< the lowest and highest fill (when filled > 0)
+  std::size_t drawn = 0;             ///< drawn values at filled points (draws=M: M per filled point)
+  std::size_t drawn_outside = 0;     ///< of those, outside the observed range
   std::size_t unfilled() const { return missing - filled; }
 };
 
