@@ -1,5 +1,5 @@
 // Exact decimal sums of cells as written (see decimal_sum.hpp).
-#include "gapmark/data/decimal_sum.hpp"
+#include "decimal_sum.hpp"
 
 #include <optional>
 

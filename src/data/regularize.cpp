@@ -6,7 +6,7 @@
 #include <cmath>
 #include <limits>
 
-#include "gapmark/data/decimal_sum.hpp"
+#include "decimal_sum.hpp"
 #include "gapmark/time_grid.hpp"
 #include "gapmark/error.hpp"
 #include "gapmark/number_format.hpp"

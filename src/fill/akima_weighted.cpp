@@ -12,7 +12,7 @@
 #include <cmath>
 #include <vector>
 
-#include "gapmark/fill/knots.hpp"
+#include "knots.hpp"
 #include "gapmark/fill/method.hpp"
 
 namespace gapmark {

@@ -9,7 +9,7 @@
 #include <tuple>
 
 #include "gapmark/error.hpp"
-#include "gapmark/fill/knots.hpp"
+#include "knots.hpp"
 #include "gapmark/fill/seasonal_decomposition.hpp"
 
 namespace gapmark::arima {

@@ -6,7 +6,7 @@
 #include <algorithm>
 #include <cmath>
 
-#include "gapmark/fill/inner_gaps.hpp"
+#include "inner_gaps.hpp"
 #include "gapmark/fill/method.hpp"
 
 namespace gapmark {

@@ -1,6 +1,6 @@
 #include "interpolating_method.hpp"
 
-#include "gapmark/fill/knots.hpp"
+#include "knots.hpp"
 
 namespace gapmark {
 namespace {

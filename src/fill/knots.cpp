@@ -1,4 +1,4 @@
-#include "gapmark/fill/knots.hpp"
+#include "knots.hpp"
 
 #include <cmath>
 

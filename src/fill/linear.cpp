@@ -3,7 +3,7 @@
 // increments). Edge gaps follow the edges policy.
 #include <cmath>
 
-#include "gapmark/fill/inner_gaps.hpp"
+#include "inner_gaps.hpp"
 #include "gapmark/fill/method.hpp"
 
 namespace gapmark {

@@ -9,7 +9,7 @@
 #include <limits>
 #include <vector>
 
-#include "gapmark/fill/knots.hpp"
+#include "knots.hpp"
 #include "gapmark/fill/method.hpp"
 #include "interpolating_method.hpp"
 

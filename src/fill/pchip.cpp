@@ -22,7 +22,7 @@
 #include <functional>
 #include <vector>
 
-#include "gapmark/fill/knots.hpp"
+#include "knots.hpp"
 #include "gapmark/fill/method.hpp"
 #include "interpolating_method.hpp"
 

@@ -16,7 +16,7 @@
 #include <string>
 #include <vector>
 
-#include "gapmark/fill/knots.hpp"
+#include "knots.hpp"
 #include "gapmark/fill/method.hpp"
 #include "gapmark/fill/seasonal_decomposition.hpp"
 

@@ -11,8 +11,8 @@
 
 #include "gapmark/number_format.hpp"
 #include "gapmark/report/fit_text.hpp"
-#include "gapmark/report/html_charts.hpp"
-#include "gapmark/report/html_style.hpp"
+#include "html_charts.hpp"
+#include "html_style.hpp"
 #include "gapmark/report/reporter.hpp"
 #include "gapmark/report/table_text.hpp"
 

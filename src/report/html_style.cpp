@@ -1,4 +1,4 @@
-#include "gapmark/report/html_style.hpp"
+#include "html_style.hpp"
 
 namespace gapmark {
 

@@ -5,7 +5,7 @@
 #include <cmath>
 #include <limits>
 
-#include "gapmark/report/html_charts.hpp"
+#include "html_charts.hpp"
 
 namespace gapmark::charts {
 

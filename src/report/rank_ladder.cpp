@@ -7,7 +7,7 @@
 #include <cmath>
 #include <numeric>
 
-#include "gapmark/report/html_charts.hpp"
+#include "html_charts.hpp"
 
 namespace gapmark::charts {
 

@@ -1,4 +1,4 @@
-#include "gapmark/report/svg.hpp"
+#include "svg.hpp"
 
 #include <cmath>
 #include <cstdio>

@@ -4,7 +4,7 @@
 #include <algorithm>
 #include <cmath>
 
-#include "gapmark/report/html_charts.hpp"
+#include "html_charts.hpp"
 
 namespace gapmark::charts {
 namespace {

@@ -3,7 +3,7 @@
 #include <doctest/doctest.h>
 
 #include "data_helpers.hpp"
-#include "gapmark/data/decimal_sum.hpp"
+#include "data/decimal_sum.hpp"
 #include "gapmark/data/regularize.hpp"
 
 using namespace gapmark;

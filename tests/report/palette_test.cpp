@@ -10,7 +10,7 @@
 #include <fstream>
 #include <nlohmann/json.hpp>
 
-#include "gapmark/report/svg.hpp"
+#include "report/svg.hpp"
 
 TEST_CASE("the stored palette check is of the palette in use, and every pair stays apart") {
   std::ifstream in(std::string(GAPMARK_SOURCE_DIR) + "/reference/report/palette.json");

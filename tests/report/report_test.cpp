@@ -12,7 +12,7 @@
 #include "gapmark/analysis/results_json.hpp"
 #include "gapmark/experiment/results_io.hpp"
 #include "gapmark/experiment/runner.hpp"
-#include "gapmark/report/html_charts.hpp"
+#include "report/html_charts.hpp"
 #include "gapmark/report/references.hpp"
 #include "gapmark/report/reporter.hpp"
 #include "gapmark/report/table_text.hpp"

@@ -7,7 +7,7 @@
 #include <vector>
 
 #include "gapmark/analysis/summary.hpp"
-#include "gapmark/report/svg.hpp"
+#include "svg.hpp"
 
 namespace gapmark::charts {
 
