@@ -1,5 +1,4 @@
 #include "gapmark/analysis/examples.hpp"
-#include "gapmark/score/metric_names.hpp"
 
 #include <algorithm>
 #include <cmath>
@@ -10,6 +9,7 @@
 #include "gapmark/fill/checked_fill.hpp"
 #include "gapmark/interrupted.hpp"
 #include "gapmark/parallel_for.hpp"
+#include "gapmark/score/metric_names.hpp"
 #include "gapmark/stats/acf.hpp"
 
 namespace gapmark {

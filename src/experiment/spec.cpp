@@ -117,18 +117,11 @@ DataSource parse_data(const json& v, const Ctx& ctx, const std::string& pointer,
   return d;
 }
 
-}  // namespace
-
-ExperimentSpec parse_spec(const std::string& text, const std::string& source,
-                          const std::filesystem::path& base_dir) {
-  const Ctx ctx{source};
-  ExperimentSpec spec;
-  spec.source = source;
-  spec.base_dir = base_dir;
-  spec.text = text;
-  spec.sha256 = sha256_hex(text);
+/// The spec's JSON; an error names the line of a syntax error or of a number
+/// out of range.
+json parse_document(const std::string& text, const std::string& source) {
   try {
-    spec.json = parse_json_strict(text, source);
+    return parse_json_strict(text, source);
   } catch (const json::parse_error& e) {
     std::string what = e.what();
     auto pos = what.find("syntax error");
@@ -144,11 +137,10 @@ ExperimentSpec parse_spec(const std::string& text, const std::string& source,
     throw InputError(at == std::string::npos ? source : source + ":" + std::to_string(line_of(text, at)),
                      "invalid JSON: " + what);
   }
-  const json& j = spec.json;
-  if (!j.is_object()) throw InputError(ctx.at("/"), "expected a JSON object");
-  for (const auto& [key, value] : j.items())
-    if (!kTopLevel.count(key)) throw InputError(ctx.at("/" + key), "unknown field");
+}
 
+/// name, seed, replicates, holdout, output, alpha, equivalence and units.
+void parse_settings(const json& j, const Ctx& ctx, const std::filesystem::path& base_dir, ExperimentSpec& spec) {
   if (auto it = j.find("name"); it != j.end()) spec.name = get_string(*it, ctx, "/name");
   if (auto it = j.find("seed"); it != j.end())
     spec.seed = static_cast<std::uint64_t>(get_integer(*it, ctx, "/seed", 0, INT64_MAX));
@@ -173,7 +165,6 @@ ExperimentSpec parse_spec(const std::string& text, const std::string& source,
                        "expected a number in (0, 1): the relative margin on the ranking metric (0.05 = within 5% of the best)");
     spec.equivalence = it->get<double>();
   }
-
   if (auto it = j.find("units"); it != j.end()) {
     if (!it->is_object()) throw InputError(ctx.at("/units"), "expected an object {\"column\": \"units\"}, e.g. {\"flow\": \"m3/s\"}");
     for (const auto& item : it->items()) {
@@ -185,7 +176,9 @@ ExperimentSpec parse_spec(const std::string& text, const std::string& source,
       spec.units[item.key()] = text;
     }
   }
+}
 
+void parse_data_list(const json& j, const Ctx& ctx, const std::filesystem::path& base_dir, ExperimentSpec& spec) {
   const auto& data = get_array(require(j, "data", ctx, ""), ctx, "/data");
   for (std::size_t i = 0; i < data.size(); ++i) {
     spec.data.push_back(parse_data(data[i], ctx, "/data/" + std::to_string(i), base_dir));
@@ -196,39 +189,49 @@ ExperimentSpec parse_spec(const std::string& text, const std::string& source,
                          "the data file " + quoted_for_message(added.label) + " is listed twice (also /data/" +
                              std::to_string(k) + "); list it once, with all the columns wanted");
   }
+}
 
+/// One scheme entry: the bound scheme and its rates ("rates": [...], or rate=R in a call).
+SchemePlan parse_scheme(const json& entry, const Ctx& ctx, const std::string& pointer) {
+  CallSpec call = CallSpec::from_json(entry, ctx.at(pointer), {"rates"});
+  SchemePlan plan;
+  std::vector<double> rates;
+  if (entry.is_object() && entry.contains("rates")) {
+    const auto& r = get_array(entry["rates"], ctx, pointer + "/rates");
+    for (std::size_t k = 0; k < r.size(); ++k) {
+      const std::string rp = pointer + "/rates/" + std::to_string(k);
+      if (!r[k].is_number()) throw InputError(ctx.at(rp), "expected a number");
+      rates.push_back(r[k].get<double>());
+      check_rate(rates.back(), ctx.at(rp));
+      refuse_repeat(rates, ctx, rp, "rate");
+    }
+  } else if (auto rate = call.take("rate")) {
+    auto v = parse_double(*rate);
+    if (!v) throw InputError(ctx.at(pointer), "rate: expected a number, found '" + *rate + "'");
+    check_rate(*v, ctx.at(pointer));
+    rates.push_back(*v);
+  } else {
+    throw InputError(ctx.at(pointer + "/rates"), "required field is missing (e.g. \"rates\": [0.1, 0.3])");
+  }
+  plan.scheme = SchemeRegistry::global().bind(call, ctx.at(pointer));
+  plan.rates = std::move(rates);
+  return plan;
+}
+
+void parse_schemes(const json& j, const Ctx& ctx, ExperimentSpec& spec) {
   const auto& schemes = get_array(require(j, "schemes", ctx, ""), ctx, "/schemes");
   for (std::size_t i = 0; i < schemes.size(); ++i) {
     const std::string pointer = "/schemes/" + std::to_string(i);
-    CallSpec call = CallSpec::from_json(schemes[i], ctx.at(pointer), {"rates"});
-    SchemePlan plan;
-    std::vector<double> rates;
-    if (schemes[i].is_object() && schemes[i].contains("rates")) {
-      const auto& r = get_array(schemes[i]["rates"], ctx, pointer + "/rates");
-      for (std::size_t k = 0; k < r.size(); ++k) {
-        const std::string rp = pointer + "/rates/" + std::to_string(k);
-        if (!r[k].is_number()) throw InputError(ctx.at(rp), "expected a number");
-        rates.push_back(r[k].get<double>());
-        check_rate(rates.back(), ctx.at(rp));
-        refuse_repeat(rates, ctx, rp, "rate");
-      }
-    } else if (auto rate = call.take("rate")) {
-      auto v = parse_double(*rate);
-      if (!v) throw InputError(ctx.at(pointer), "rate: expected a number, found '" + *rate + "'");
-      check_rate(*v, ctx.at(pointer));
-      rates.push_back(*v);
-    } else {
-      throw InputError(ctx.at(pointer + "/rates"), "required field is missing (e.g. \"rates\": [0.1, 0.3])");
-    }
-    plan.scheme = SchemeRegistry::global().bind(call, ctx.at(pointer));
+    SchemePlan plan = parse_scheme(schemes[i], ctx, pointer);
     for (const auto& earlier : spec.schemes)
       if (earlier.scheme.label == plan.scheme.label)
         throw InputError(ctx.at(pointer), "scheme " + quoted_for_message(plan.scheme.label) +
                                               " is listed twice; give one entry with all its rates");
-    plan.rates = std::move(rates);
     spec.schemes.push_back(std::move(plan));
   }
+}
 
+void parse_methods(const json& j, const Ctx& ctx, ExperimentSpec& spec) {
   const auto& methods = get_array(require(j, "methods", ctx, ""), ctx, "/methods");
   std::set<std::string> method_labels;
   for (std::size_t i = 0; i < methods.size(); ++i) {
@@ -239,7 +242,11 @@ ExperimentSpec parse_spec(const std::string& text, const std::string& source,
       throw InputError(ctx.at(pointer), "method '" + bound.label + "' is listed twice");
     spec.methods.push_back(std::move(bound));
   }
+}
 
+/// The metrics (the defaults when the spec names none), then rank_by, which
+/// must name one of their columns.
+std::vector<Bound<Metric>> bind_metrics(const json& j, const Ctx& ctx) {
   std::vector<std::pair<std::string, json>> metric_calls;
   if (auto it = j.find("metrics"); it != j.end()) {
     const auto& metrics = get_array(*it, ctx, "/metrics");
@@ -248,10 +255,14 @@ ExperimentSpec parse_spec(const std::string& text, const std::string& source,
   } else {
     for (const auto& name : default_metric_calls()) metric_calls.emplace_back("(default metrics)", name);
   }
+  std::vector<Bound<Metric>> bound;
   for (const auto& [pointer, value] : metric_calls)
-    spec.metrics.push_back(
-        MetricRegistry::global().bind(CallSpec::from_json(value, ctx.at(pointer)), ctx.at(pointer)));
+    bound.push_back(MetricRegistry::global().bind(CallSpec::from_json(value, ctx.at(pointer)), ctx.at(pointer)));
+  return bound;
+}
 
+void parse_metrics(const json& j, const Ctx& ctx, ExperimentSpec& spec) {
+  spec.metrics = bind_metrics(j, ctx);
   std::set<std::string> column_names;
   for (const auto& m : spec.metrics)
     for (const auto& c : m.impl->columns()) column_names.insert(c.name);
@@ -261,7 +272,33 @@ ExperimentSpec parse_spec(const std::string& text, const std::string& source,
     for (const auto& c : column_names) known += (known.empty() ? "" : ", ") + c;
     throw InputError(ctx.at("/rank_by"), "no metric column '" + spec.rank_by + "' (known: " + known + ")");
   }
+}
+
+}  // namespace
+
+ExperimentSpec parse_spec(const std::string& text, const std::string& source,
+                          const std::filesystem::path& base_dir) {
+  const Ctx ctx{source};
+  ExperimentSpec spec;
+  spec.source = source;
+  spec.base_dir = base_dir;
+  spec.text = text;
+  spec.sha256 = sha256_hex(text);
+  spec.json = parse_document(text, source);
+  const json& j = spec.json;
+  if (!j.is_object()) throw InputError(ctx.at("/"), "expected a JSON object");
+  for (const auto& [key, value] : j.items())
+    if (!kTopLevel.count(key)) throw InputError(ctx.at("/" + key), "unknown field");
+  parse_settings(j, ctx, base_dir, spec);
+  parse_data_list(j, ctx, base_dir, spec);
+  parse_schemes(j, ctx, spec);
+  parse_methods(j, ctx, spec);
+  parse_metrics(j, ctx, spec);
   return spec;
+}
+
+std::vector<Bound<Metric>> bind_spec_metrics(const nlohmann::json& spec, const std::string& source) {
+  return bind_metrics(spec, Ctx{source});
 }
 
 ExperimentSpec load_spec(const std::filesystem::path& path) {

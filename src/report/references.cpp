@@ -4,7 +4,6 @@
 // only where we are confident of them. Check an entry against the
 // publisher's record before citing it in print.
 #include "gapmark/report/references.hpp"
-#include "gapmark/score/metric_names.hpp"
 
 #include <algorithm>
 #include <cmath>
@@ -12,7 +11,9 @@
 #include <set>
 
 #include "gapmark/analysis/test_names.hpp"
-#include "gapmark/params.hpp"
+#include "gapmark/error.hpp"
+#include "gapmark/experiment/spec.hpp"
+#include "gapmark/score/metric_names.hpp"
 
 namespace gapmark {
 namespace {
@@ -124,21 +125,15 @@ std::string call_name(const std::string& label) {
   return colon == std::string::npos ? label : label.substr(0, colon);
 }
 
-/// The forecaster of the run's "forecast" metric (Holt-Winters by default).
+/// The forecaster of the run's "forecast" metric, from its stored spec bound
+/// as the run bound it (Holt-Winters, the default, when the spec cannot be bound).
 std::string forecast_model(const ResultSet& results) {
   namespace fc = metric_names::forecast;
-  const auto& spec = results.context.value("spec", nlohmann::json::object());
-  if (spec.is_object() && spec.contains("metrics") && spec["metrics"].is_array()) {
-    for (const auto& m : spec["metrics"]) {
-      if (m.is_string()) {
-        const auto call = CallSpec::parse(m.get<std::string>(), "metrics");
-        if (call.name != fc::kName) continue;
-        for (const auto& [k, v] : call.args)
-          if (k == fc::kModel) return v;
-      } else if (m.is_object() && m.value("name", std::string()) == fc::kName) {
-        return m.value(fc::kModel, std::string(fc::kHoltWinters));
-      }
-    }
+  try {
+    const auto spec = results.context.value("spec", nlohmann::json::object());
+    for (const auto& m : bind_spec_metrics(spec, "results: /context/spec"))
+      if (m.entry && m.entry->name == fc::kName) return m.params.text(fc::kModel);
+  } catch (const InputError&) {
   }
   return fc::kHoltWinters;
 }

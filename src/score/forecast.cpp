@@ -25,10 +25,10 @@
 #include <vector>
 
 #include "gapmark/forecast/holt_winters.hpp"
-#include "gapmark/score/metric_names.hpp"
 #include "gapmark/forecast/mase.hpp"
 #include "gapmark/forecast/seasonal_naive.hpp"
 #include "gapmark/score/metric.hpp"
+#include "gapmark/score/metric_names.hpp"
 
 namespace gapmark {
 namespace {

@@ -301,3 +301,19 @@ TEST_CASE("a dot chart draws every method, and one far worse at the axis' end") 
   CHECK(svg.find(">40</text>") == std::string::npos);
   CHECK(charts::dot_chart(charts::DotChart{}).empty());
 }
+
+TEST_CASE("Holt-Winters is cited only when the forecast metric used it, as the stored spec bound it") {
+  // The forecast metric's columns with no trials: only the metric citations matter here.
+  ResultSet r;
+  r.columns = {{"mase_filled", "scaled error", Direction::Lower, ""}};
+  const auto cites_winters = [&](const nlohmann::json& metrics) {
+    r.context = {{"spec", {{"metrics", metrics}}}};
+    const auto keys = cited_keys(cited_uses(r, Summary{}));
+    return std::find(keys.begin(), keys.end(), "winters1960") != keys.end();
+  };
+  CHECK(cites_winters(nlohmann::json::array({"forecast"})));  // the default forecaster
+  CHECK(cites_winters(nlohmann::json::array({"error", "forecast:model=holt-winters"})));
+  CHECK_FALSE(cites_winters(nlohmann::json::array({"forecast:model=seasonal-naive"})));
+  CHECK_FALSE(cites_winters(nlohmann::json::array({{{"name", "forecast"}, {"model", "seasonal-naive"}}})));
+  CHECK(cites_winters(nlohmann::json::array({"no-such-metric"})));  // a spec that does not bind: the default
+}

@@ -62,6 +62,12 @@ struct ExperimentSpec {
 /// Reads and checks a spec file. Errors are one line naming the file and the
 /// JSON path of the offending field ("demo.json: /schemes/1/rates/0: ...").
 ExperimentSpec load_spec(const std::filesystem::path& path);
+
+/// The metrics of a spec's JSON bound as parse_spec binds them (the defaults
+/// when it names none): how a results file's stored spec tells which metric
+/// settings made its columns. InputError, naming `source`, for a call that
+/// does not bind.
+std::vector<Bound<Metric>> bind_spec_metrics(const nlohmann::json& spec, const std::string& source);
 /// Checks a spec given as text; `source` names it in errors, `base_dir`
 /// resolves relative data paths.
 ExperimentSpec parse_spec(const std::string& text, const std::string& source,
