@@ -328,25 +328,16 @@ std::vector<char*> pointers(std::vector<std::string>& words) {
 constexpr std::size_t kErrorsKept = 64 * 1024;
 constexpr std::size_t kChunk = 64 * 1024;
 
-}  // namespace
+using Clock = std::chrono::steady_clock;
 
-void interrupt_external_programs() noexcept { g_interrupted.store(true); }
-bool external_programs_interrupted() noexcept { return g_interrupted.load(); }
+void check_interrupt() {
+  if (g_interrupted.load()) throw Interrupted("stopped by an interrupt");
+}
 
-ProgramOutcome run_program(const ProgramRun& run) {
-  using Clock = std::chrono::steady_clock;
-  if (run.argv.empty()) throw MethodFailure("no program to run");
-  const auto check_interrupt = [] {
-    if (g_interrupted.load()) throw Interrupted("stopped by an interrupt");
-  };
-  check_interrupt();
-  become_subreaper();
-  const auto deadline = Clock::now() + std::chrono::duration_cast<Clock::duration>(
-                                           std::chrono::duration<double>(run.timeout_seconds));
-  const std::string timed_out = "timed out after " + format_double(run.timeout_seconds) + " s";
-
-  Pipe in = make_pipe(), out = make_pipe(), err = make_pipe();
-  SpawnSetup setup;
+/// The child's standard streams on the pipes, its working folder, its own
+/// process group, no blocked signals and the usual defaults for those gapmark
+/// handles itself.
+void configure_spawn(SpawnSetup& setup, const Pipe& in, const Pipe& out, const Pipe& err, const ProgramRun& run) {
   posix_spawn_file_actions_adddup2(&setup.actions, in.read.get(), 0);
   posix_spawn_file_actions_adddup2(&setup.actions, out.write.get(), 1);
   posix_spawn_file_actions_adddup2(&setup.actions, err.write.get(), 2);
@@ -362,30 +353,13 @@ ProgramOutcome run_program(const ProgramRun& run) {
   if (!run.working_dir.empty()) posix_spawn_file_actions_addchdir_np(&setup.actions, run.working_dir.c_str());
   posix_spawnattr_setpgroup(&setup.attr, 0);
   posix_spawnattr_setflags(&setup.attr, POSIX_SPAWN_SETPGROUP | POSIX_SPAWN_SETSIGMASK | POSIX_SPAWN_SETSIGDEF);
+}
 
-  std::vector<std::string> argv_words = run.argv;
-  std::vector<std::string> env_words = child_environment(run);
-  const std::vector<char*> argv = pointers(argv_words);
-  const std::vector<char*> envp = pointers(env_words);
-
-  const SigpipeGuard sigpipe_guard;
-  pid_t pid = 0;
-  std::unique_lock registry(g_children_mutex);
-  const int spawn_error = ::posix_spawnp(&pid, argv[0], &setup.actions, &setup.attr, argv.data(), envp.data());
-  if (spawn_error == 0) g_children.insert(pid);
-  registry.unlock();
-  if (spawn_error != 0)
-    throw MethodFailure("cannot start " + quoted_for_message(run.argv[0], 200) + ": " + error_text(spawn_error));
-  Child child(pid);
-  in.read.reset();
-  out.write.reset();
-  err.write.reset();
-  set_nonblocking(in.write.get());
-  set_nonblocking(out.read.get());
-  set_nonblocking(err.read.get());
-  if (run.input.empty()) in.write.reset();
-
-  ProgramOutcome outcome;
+/// Feeds run.input to the program and collects its output and errors until
+/// it closes both output pipes; MethodFailure past the deadline or past the
+/// output limit, Interrupted when the user stops the work.
+void exchange(const ProgramRun& run, Pipe& in, Pipe& out, Pipe& err, Clock::time_point deadline,
+              const std::string& timed_out, ProgramOutcome& outcome) {
   std::size_t written = 0;
   char buffer[kChunk];
   while (out.read.open() || err.read.open()) {
@@ -431,6 +405,48 @@ ProgramOutcome run_program(const ProgramRun& run) {
       }
     }
   }
+}
+
+}  // namespace
+
+void interrupt_external_programs() noexcept { g_interrupted.store(true); }
+bool external_programs_interrupted() noexcept { return g_interrupted.load(); }
+
+ProgramOutcome run_program(const ProgramRun& run) {
+  if (run.argv.empty()) throw MethodFailure("no program to run");
+  check_interrupt();
+  become_subreaper();
+  const auto deadline = Clock::now() + std::chrono::duration_cast<Clock::duration>(
+                                           std::chrono::duration<double>(run.timeout_seconds));
+  const std::string timed_out = "timed out after " + format_double(run.timeout_seconds) + " s";
+
+  Pipe in = make_pipe(), out = make_pipe(), err = make_pipe();
+  SpawnSetup setup;
+  configure_spawn(setup, in, out, err, run);
+  std::vector<std::string> argv_words = run.argv;
+  std::vector<std::string> env_words = child_environment(run);
+  const std::vector<char*> argv = pointers(argv_words);
+  const std::vector<char*> envp = pointers(env_words);
+
+  const SigpipeGuard sigpipe_guard;
+  pid_t pid = 0;
+  std::unique_lock registry(g_children_mutex);
+  const int spawn_error = ::posix_spawnp(&pid, argv[0], &setup.actions, &setup.attr, argv.data(), envp.data());
+  if (spawn_error == 0) g_children.insert(pid);
+  registry.unlock();
+  if (spawn_error != 0)
+    throw MethodFailure("cannot start " + quoted_for_message(run.argv[0], 200) + ": " + error_text(spawn_error));
+  Child child(pid);
+  in.read.reset();
+  out.write.reset();
+  err.write.reset();
+  set_nonblocking(in.write.get());
+  set_nonblocking(out.read.get());
+  set_nonblocking(err.read.get());
+  if (run.input.empty()) in.write.reset();
+
+  ProgramOutcome outcome;
+  exchange(run, in, out, err, deadline, timed_out, outcome);
   in.write.reset();
   // Both output pipes are closed: the program is ending or has closed them.
   while (!child.exited()) {
