@@ -96,7 +96,7 @@ int main(int argc, char** argv) {
     const auto spec = parse_spec(spec_text(dir / "data.csv", R"(, "metrics": ["error"])", replicates), "bench.json", dir);
     const auto t0 = std::chrono::steady_clock::now();
     const double c0 = cpu_seconds();
-    const FolderRunStatus status = run_into_folder(spec, options, {dir / "out", false, std::nullopt});
+    const FolderRunStatus status = run_into_folder(spec, options, {.dir = dir / "out", .resume = false, .shard = std::nullopt});
     const double seconds = seconds_since(t0), cpu = cpu_seconds() - c0;
     // Scored points: the same masks as the in-memory run.
     const ResultSet results = run_experiment(spec, options);

@@ -168,7 +168,7 @@ TEST_CASE("infinite input is refused with one line naming the file and line") {
                                "inf.json", dir);
   RunOptions options;
   try {
-    run_into_folder(spec, options, {dir / "out", false, std::nullopt});
+    run_into_folder(spec, options, {.dir = dir / "out", .resume = false, .shard = std::nullopt});
     FAIL("infinite input was accepted");
   } catch (const InputError& e) {
     const std::string message = e.what();
@@ -187,7 +187,7 @@ TEST_CASE("an output folder that cannot be written: one line, nothing that looks
   RunOptions options;
   // A folder under a device file can never be created (even by root).
   try {
-    run_into_folder(spec, options, {"/dev/null/out", false, std::nullopt});
+    run_into_folder(spec, options, {.dir = "/dev/null/out", .resume = false, .shard = std::nullopt});
     FAIL("an impossible output folder was accepted");
   } catch (const InputError& e) {
     const std::string message = e.what();
@@ -201,7 +201,7 @@ TEST_CASE("an output folder that cannot be written: one line, nothing that looks
   fs::create_directories(dir / "full");
   fs::create_symlink("/dev/full", dir / "full" / kCheckpointFile);
   try {
-    run_into_folder(spec, options, {dir / "full", false, std::nullopt});
+    run_into_folder(spec, options, {.dir = dir / "full", .resume = false, .shard = std::nullopt});
     FAIL("a checkpoint link was followed");
   } catch (const InputError& e) {
     const std::string message = e.what();

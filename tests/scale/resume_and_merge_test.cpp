@@ -37,7 +37,7 @@ struct Fixture {
     options.threads = threads;
     options.stop = stop;
     options.progress = std::move(progress);
-    return run_into_folder(spec, options, {dir, resume, shard});
+    return run_into_folder(spec, options, {.dir = dir, .resume = resume, .shard = shard});
   }
 };
 
@@ -132,7 +132,7 @@ TEST_CASE("a checkpoint refuses another spec, a damaged middle line, a missing f
   const Fixture other("refuse_other", 12);  // same data, another seed: another spec
   RunOptions options;
   const std::string message =
-      input_error([&] { run_into_folder(other.spec, options, {fx.root / "run", true, std::nullopt}); });
+      input_error([&] { run_into_folder(other.spec, options, {.dir = fx.root / "run", .resume = true, .shard = std::nullopt}); });
   CHECK(message.find("another spec") != std::string::npos);
   CHECK(message.find('\n') == std::string::npos);
   CHECK(message.find((fx.root / "run" / kCheckpointFile).string()) == 0);

@@ -14,7 +14,7 @@ namespace {
 std::vector<double> compute(const std::string& call, const std::vector<double>& truth,
                             const std::vector<double>& filled, const Mask& mask) {
   const auto metric = MetricRegistry::global().bind(CallSpec::parse(call, "test"), "test");
-  ScoreInput in{truth, filled, {}, &mask, nullptr, 0, 0};
+  ScoreInput in{truth, filled, {}, &mask, nullptr, 0, 0, {}};
   std::vector<double> out(metric.impl->columns().size());
   metric.impl->compute(in, out);
   return out;
