@@ -6,6 +6,7 @@
 
 #include "bindings.hpp"
 #include "gapmark/error.hpp"
+#include "gapmark/fill/checked_fill.hpp"
 #include "gapmark/fill/method.hpp"
 #include "gapmark/mask/mask_table.hpp"
 #include "gapmark/mask/scheme.hpp"
@@ -49,9 +50,10 @@ py::array_t<double> to_array(const std::vector<double>& v) {
   return out;
 }
 
-/// Fills the missing values of one series as `gapmark fill` fills a column:
-/// the method's needs checked, observed values kept, non-finite fills left
-/// missing. A method that cannot fill raises MethodFailure with its reason.
+/// Fills the missing values of one series through the fill step `gapmark fill`
+/// and a run use (checked_fill): the method's needs checked, observed values
+/// kept, non-finite fills left missing. A method that cannot fill raises
+/// MethodFailure with its reason.
 py::tuple fill_series(const DoubleArray& values, const std::string& method_text, const Args& args,
                       std::size_t period, const std::optional<std::vector<std::string>>& times,
                       const std::vector<std::string>& sibling_names, const std::vector<DoubleArray>& siblings) {
@@ -65,29 +67,24 @@ py::tuple fill_series(const DoubleArray& values, const std::string& method_text,
     request.siblings.emplace_back(in.siblings[k]);
     request.sibling_names.push_back(in.sibling_names[k]);
   }
-  FillResult result;
   interrupted() = false;
-  try {
+  CheckedFill fill;
+  {
     py::gil_scoped_release release;  // a Python method takes it back
-    check_needs(method, request);
-    result = method.impl->fill(request);
-  } catch (const MethodFailure&) {
+    fill = checked_fill(method, request);
+  }
+  if (fill.failed()) {
     raise_if_interrupted();
-    throw;
+    throw MethodFailure(fill.failure, fill.need);
   }
-  if (result.values.size() != in.values.size()) throw MethodFailure("returned the wrong number of values");
-  std::vector<double> filled = in.values;
-  const bool with_variance = result.variance.size() == in.values.size();
+  const bool with_variance = fill.variance.size() == in.values.size();
   std::vector<double> variance(with_variance ? in.values.size() : 0, 0.0);
-  for (std::size_t i = 0; i < filled.size(); ++i) {
-    if (!std::isnan(in.values[i])) continue;
-    filled[i] = std::isfinite(result.values[i]) ? result.values[i] : std::numeric_limits<double>::quiet_NaN();
-    if (with_variance)
-      variance[i] = std::isnan(filled[i]) ? std::numeric_limits<double>::quiet_NaN() : result.variance[i];
-  }
+  for (std::size_t i = 0; i < variance.size(); ++i)
+    if (std::isnan(in.values[i]))
+      variance[i] = std::isnan(fill.values[i]) ? std::numeric_limits<double>::quiet_NaN() : fill.variance[i];
   py::object variance_out = with_variance ? py::object(to_array(variance)) : py::object(py::none());
-  py::object fit = result.fit.empty() ? py::object(py::none()) : py::object(py::str(fit_to_json(result.fit).dump()));
-  return py::make_tuple(to_array(filled), variance_out, fit, result.clipped, method.label);
+  py::object fit = fill.fit.empty() ? py::object(py::none()) : py::object(py::str(fit_to_json(fill.fit).dump()));
+  return py::make_tuple(to_array(fill.values), variance_out, fit, fill.clipped, method.label);
 }
 
 /// The mask `gapmark mask` and `gapmark run` draw for a series named `name`
