@@ -30,8 +30,8 @@ struct RoundedInterval {
 RoundedInterval rounded_interval(double value, double low, double high);
 
 /// A share as a percentage for people: whole percent from 10% up, two
-/// significant digits below ("0%", "0.35%", "3.5%", "12%", "1039%"); "n/a"
-/// when not finite.
+/// significant digits below, as printf's %.2g ("0%", "0.35%", "3.5%", "10%"
+/// for 9.96%, "6.7e-11%", "12%", "1039%"); "n/a" when not finite.
 std::string rounded_percent(double share);
 /// A relative difference the same way, with its sign: "+0.18%", "-3.3%".
 std::string signed_percent(double share);

@@ -33,9 +33,13 @@ RoundedInterval rounded_interval(double value, double low, double high) {
 std::string rounded_percent(double share) {
   if (!std::isfinite(share)) return "n/a";
   const double p = 100 * share;
-  const double size = std::abs(p);
-  const int decimals = size >= 10 || size == 0 ? 0 : std::clamp(1 - static_cast<int>(std::floor(std::log10(size))), 0, 15);
-  return fixed_number(p, decimals) + "%";
+  char buffer[48];
+  // whole percent from 10% up; below, two significant digits as C's %.2g
+  // writes them ("0.18", "3.3", "6.7e-11": a difference at rounding level)
+  std::snprintf(buffer, sizeof buffer, std::abs(p) >= 10 ? "%.0f%%" : "%.2g%%", p);
+  std::string text = buffer;
+  if (text.rfind("-0%", 0) == 0) text.erase(0, 1);
+  return text;
 }
 
 std::string signed_percent(double share) {

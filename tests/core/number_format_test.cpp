@@ -28,3 +28,36 @@ TEST_CASE("cells: missing tokens and strict numbers") {
   CHECK_FALSE(parse_double("abc").has_value());
   CHECK(std::isinf(*parse_double("1e999")));
 }
+
+TEST_CASE("percentages for people: two significant digits below 10%, whole percent above") {
+  // Expected texts from Python's printf-style formatting of 100 * share:
+  // '%.2g%%' below 10%, '%.0f%%' from 10% up (the C library's rounding).
+  CHECK(rounded_percent(0.0018432) == "0.18%");
+  CHECK(rounded_percent(0.03342) == "3.3%");
+  CHECK(rounded_percent(0.0996) == "10%");
+  CHECK(rounded_percent(0.8748) == "87%");
+  CHECK(rounded_percent(10.39) == "1039%");
+  CHECK(rounded_percent(6.749e-13) == "6.7e-11%");
+  CHECK(rounded_percent(-0.033) == "-3.3%");
+  CHECK(rounded_percent(0.0) == "0%");
+  CHECK(rounded_percent(-0.0) == "0%");
+  CHECK(rounded_percent(std::nan("")) == "n/a");
+  CHECK(signed_percent(0.0018432) == "+0.18%");
+  CHECK(signed_percent(-0.03342) == "-3.3%");
+  CHECK(signed_percent(0.0) == "0%");
+}
+
+TEST_CASE("a value and its interval rounded to two significant digits of the interval's width") {
+  // width 0.0029 -> 4 decimals; width 1.2 -> 1 decimal; zero width -> short_number's 4 significant digits
+  const RoundedInterval a = rounded_interval(0.063831, 0.062372, 0.065321);
+  CHECK(a.value == "0.0638");
+  CHECK(a.low == "0.0624");
+  CHECK(a.high == "0.0653");
+  const RoundedInterval b = rounded_interval(7.84, 6.81, 8.98);
+  CHECK(b.value == "7.8");
+  CHECK(b.low == "6.8");
+  CHECK(b.high == "9.0");
+  const RoundedInterval c = rounded_interval(2.0, 2.0, 2.0);
+  CHECK(c.value == "2");
+  CHECK(c.low == "2");
+}
