@@ -1,14 +1,11 @@
 // `gapmark fill`: fill the real gaps of a CSV with one method.
 #include <algorithm>
-#include <cmath>
 #include <filesystem>
 #include <iostream>
 
 #include "commands.hpp"
 #include "gapmark/error.hpp"
-#include "gapmark/fill/fill_table.hpp"
-#include "gapmark/number_format.hpp"
-#include "gapmark/report/table_text.hpp"
+#include "gapmark/fill/fill_table_report.hpp"
 #include "gapmark/wide_write.hpp"
 #include "output_rules.hpp"
 #include "table_options.hpp"
@@ -16,20 +13,6 @@
 namespace gapmark::cli {
 
 namespace {
-
-/// The --fit file: per selected column, its missing points and the gaps they form, what was filled, and the
-/// method's fit (null for a method without a model, or when it failed).
-nlohmann::json fits_json(const std::string& method, const std::vector<FillTableReport>& reports) {
-  nlohmann::json columns = nlohmann::json::array();
-  for (const auto& r : reports)
-    columns.push_back({{"column", r.column},
-                       {"missing", r.missing},
-                       {"gaps", r.gaps},
-                       {"filled", r.filled},
-                       {"fit", r.fit.empty() ? nlohmann::json(nullptr) : fit_to_json(r.fit)},
-                       {"failure", r.failure.empty() ? nlohmann::json(nullptr) : nlohmann::json(r.failure)}});
-  return {{"format", "gapmark-fit"}, {"schema_version", 1}, {"method", method}, {"columns", columns}};
-}
 
 /// The method call with `draws=M` added for --draws M; refused for a method
 /// that cannot draw, or one whose call already asks for another number.
@@ -49,31 +32,33 @@ CallSpec with_draws(CallSpec call, std::size_t draws) {
   return call;
 }
 
-/// One line for people: the model, its estimates and its likelihood, 4 significant digits.
-std::string fit_line(const ModelFit& fit) {
-  std::string line = fit.model;
-  for (const auto& p : fit.parameters) line += ", " + p.first + " " + short_number(p.second);
-  if (std::isfinite(fit.log_likelihood)) line += ", log-likelihood " + short_number(fit.log_likelihood);
-  if (!fit.converged) line += " (not converged)";
-  if (fit.at_bound) line += " (an estimate on a bound of its search)";
-  return line;
+struct FillOptions {
+  TableOptions table;
+  std::string method;
+  std::string out;
+  std::string fit;
+  std::size_t draws = 0;
+  std::uint64_t seed = 1;
+  bool force = false;
+  bool allow_unfilled = false;
+  bool variance = false;
+};
+
+/// --out and --fit: new files (or --force), neither an input nor each other.
+void check_outputs(const FillOptions& o) {
+  check_output_file(o.out, o.force);
+  check_file_is_no_input(o.out, {o.table.input});
+  if (o.fit.empty()) return;
+  if (std::filesystem::weakly_canonical(o.fit) == std::filesystem::weakly_canonical(o.out))
+    throw InputError("--fit", "names the same file as --out ('" + o.out + "'); give the fit its own file");
+  check_output_file(o.fit, o.force);
+  check_file_is_no_input(o.fit, {o.table.input, o.out});
 }
 
 }  // namespace
 
 void add_fill(CLI::App& app, Action& action) {
-  struct Options {
-    TableOptions table;
-    std::string method;
-    std::string out;
-    std::string fit;
-    std::size_t draws = 0;
-    std::uint64_t seed = 1;
-    bool force = false;
-    bool allow_unfilled = false;
-    bool variance = false;
-  };
-  auto o = std::make_shared<Options>();
+  auto o = std::make_shared<FillOptions>();
   auto* cmd = app.add_subcommand("fill", "Fill the gaps of a CSV with one method; adds a COLUMN_filled flag column per column");
   o->table.declare(*cmd);
   cmd->add_option("--method,-m", o->method, "Method and parameters, e.g. linear or kalman:model=trend")->required();
@@ -97,63 +82,24 @@ void add_fill(CLI::App& app, Action& action) {
                 "observed points, and everywhere for methods that give none)");
   cmd->callback([&action, o] {
     action = [o] {
-      check_output_file(o->out, o->force);
-      check_file_is_no_input(o->out, {o->table.input});
-      if (!o->fit.empty()) {
-        if (std::filesystem::weakly_canonical(o->fit) == std::filesystem::weakly_canonical(o->out))
-          throw InputError("--fit", "names the same file as --out ('" + o->out + "'); give the fit its own file");
-        check_output_file(o->fit, o->force);
-        check_file_is_no_input(o->fit, {o->table.input, o->out});
-      }
+      check_outputs(*o);
       auto method = MethodRegistry::global().bind(with_draws(CallSpec::parse(o->method, "--method"), o->draws),
                                                   "--method");
       WideTable table = o->table.read();
       auto columns = select_columns(table, o->table.columns);
       const FillTableOutput result = fill_table(table, columns, method, o->table.period, !o->fit.empty(), o->seed);
-      std::size_t unfilled = 0;
-      std::string first_problem;
-      for (const auto& r : result.reports) {
-        if (r.unfilled() == 0) continue;
-        unfilled += r.unfilled();
-        if (first_problem.empty()) first_problem = unfilled_message(r, method);
-      }
+      const std::size_t unfilled = total_unfilled(result);
       if (unfilled > 0 && !o->allow_unfilled)
-        throw InputError(o->table.input, first_problem + " (--allow-unfilled writes the file anyway)");
-      std::vector<ExtraColumn> extra;
-      for (std::size_t k = 0; k < columns.size(); ++k) {
-        extra.emplace_back(table.columns[columns[k]] + "_filled", result.flags[k]);
-        if (o->variance) extra.emplace_back(table.columns[columns[k]] + "_variance", result.variance[k]);
-      }
-      for (std::size_t k = 0; k < columns.size() && o->draws > 0; ++k)
-        for (std::size_t d = 0; d < o->draws; ++d) {
-          const auto& draws = result.reports[k].draws;
-          std::vector<std::string> cells = table.cells[columns[k]];
-          if (d < draws.size())
-            for (std::size_t i = 0; i < cells.size(); ++i)
-              if (result.flags[k][i] == "1") cells[i] = std::isfinite(draws[d][i]) ? format_double(draws[d][i]) : "";
-          extra.emplace_back(table.columns[columns[k]] + "_draw_" + std::to_string(d + 1), std::move(cells));
-        }
-      const std::string csv = write_wide_csv(table, extra);
+        throw InputError(o->table.input, first_unfilled_message(result, method) + " (--allow-unfilled writes the file anyway)");
+      const std::string csv =
+          write_wide_csv(table, fill_extra_columns(table, columns, result, {.variance = o->variance, .draws = o->draws}));
       if (!o->fit.empty()) write_file_atomically(o->fit, fits_json(method.label, result.reports).dump(2) + "\n");
       write_file_atomically(o->out, csv);
       if (table.added_rows > 0)
         std::cerr << "added " << table.added_rows << (table.added_rows == 1 ? " row for the " : " rows for the ")
                   << table.axis.step().iso() << (table.added_rows == 1 ? " step" : " steps")
                   << " the file had no row for (their values were missing)\n";
-      for (const auto& r : result.reports) {
-        if (r.missing == 0) {
-          std::cerr << r.column << ": no missing points\n";
-        } else {
-          std::cerr << r.column << ": filled " << r.filled << " of " << points_in_gaps(r.missing, r.gaps);
-          if (r.clipped) std::cerr << " (" << r.clipped << " moved into the bounds)";
-          if (o->variance && r.filled > 0 && !r.variance) std::cerr << " (" << method.label << " gives no variance)";
-          std::cerr << "\n";
-        }
-        if (!o->fit.empty() && !r.fit.empty()) std::cerr << "  fit: " << fit_line(r.fit) << "\n";
-        if (r.unfilled() > 0) std::cerr << "warning: " << unfilled_message(r, method) << "\n";
-        if (const std::string range = out_of_range_message(r, method); !range.empty())
-          std::cerr << "note: " << range << "\n";
-      }
+      std::cerr << fill_report_text(result, method, {.variance = o->variance, .draws = o->draws}, !o->fit.empty());
       if (unfilled > 0)
         std::cerr << "wrote " << o->out << " with " << unfilled << (unfilled == 1 ? " point" : " points")
                   << " left unfilled (--allow-unfilled)\n";

@@ -119,6 +119,37 @@ FillTableOutput fill_table(WideTable& table, const std::vector<std::size_t>& col
   return out;
 }
 
+std::vector<ExtraColumn> fill_extra_columns(const WideTable& table, const std::vector<std::size_t>& columns,
+                                            const FillTableOutput& result, const FillColumnsWanted& wanted) {
+  std::vector<ExtraColumn> extra;
+  for (std::size_t k = 0; k < columns.size(); ++k) {
+    extra.emplace_back(table.columns[columns[k]] + "_filled", result.flags[k]);
+    if (wanted.variance) extra.emplace_back(table.columns[columns[k]] + "_variance", result.variance[k]);
+  }
+  for (std::size_t k = 0; k < columns.size(); ++k)
+    for (std::size_t d = 0; d < wanted.draws; ++d) {
+      const auto& draws = result.reports[k].draws;
+      std::vector<std::string> cells = table.cells[columns[k]];
+      if (d < draws.size())
+        for (std::size_t i = 0; i < cells.size(); ++i)
+          if (result.flags[k][i] == "1") cells[i] = std::isfinite(draws[d][i]) ? format_double(draws[d][i]) : "";
+      extra.emplace_back(table.columns[columns[k]] + "_draw_" + std::to_string(d + 1), std::move(cells));
+    }
+  return extra;
+}
+
+std::size_t total_unfilled(const FillTableOutput& result) {
+  std::size_t unfilled = 0;
+  for (const auto& r : result.reports) unfilled += r.unfilled();
+  return unfilled;
+}
+
+std::string first_unfilled_message(const FillTableOutput& result, const Bound<FillMethod>& method) {
+  for (const auto& r : result.reports)
+    if (r.unfilled() > 0) return unfilled_message(r, method);
+  return "";
+}
+
 std::string points_in_gaps(std::size_t points, std::size_t gaps) {
   return std::to_string(points) + (points == 1 ? " point in " : " points in ") + std::to_string(gaps) +
          (gaps == 1 ? " gap" : " gaps");

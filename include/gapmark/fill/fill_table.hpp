@@ -7,6 +7,7 @@
 
 #include "gapmark/fill/method.hpp"
 #include "gapmark/table_io.hpp"
+#include "gapmark/wide_write.hpp"
 
 namespace gapmark {
 
@@ -49,6 +50,22 @@ struct FillTableOutput {
 FillTableOutput fill_table(WideTable& table, const std::vector<std::size_t>& columns,
                            const Bound<FillMethod>& method, std::size_t period,
                            bool fit_complete_columns = false, std::uint64_t seed = 1);
+
+/// Which extra columns `gapmark fill` writes besides each column's flags.
+struct FillColumnsWanted {
+  bool variance = false;   ///< COLUMN_variance after each COLUMN_filled
+  std::size_t draws = 0;   ///< COLUMN_draw_1 .. COLUMN_draw_M per column, after all flag columns
+};
+/// The extra columns of a filled table: per selected column its flag column
+/// (and its variance column), then its draws, each the column as read with the
+/// draw at filled points (empty where a draw is missing).
+std::vector<ExtraColumn> fill_extra_columns(const WideTable& table, const std::vector<std::size_t>& columns,
+                                            const FillTableOutput& result, const FillColumnsWanted& wanted);
+
+/// Points left unfilled over every column.
+std::size_t total_unfilled(const FillTableOutput& result);
+/// unfilled_message of the first column left (partly) unfilled; "" when none.
+std::string first_unfilled_message(const FillTableOutput& result, const Bound<FillMethod>& method);
 
 /// "37 points in 17 gaps" (singular forms for 1).
 std::string points_in_gaps(std::size_t points, std::size_t gaps);
