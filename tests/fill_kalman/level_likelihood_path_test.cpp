@@ -38,30 +38,40 @@ std::vector<double> invented(std::size_t n, double missing, std::uint64_t seed) 
   return y;
 }
 
-}  // namespace
-
-TEST_CASE("local level: the likelihood pass equals the general matrix pass bit for bit") {
-  const auto model = ss::StructuralModel::local_level();
+/// Every case the two comparisons below cover: 3 lengths x 3 missing shares x
+/// 5 variance pairs (45 cases), the data invented from the length's seed.
+template <class Compare>
+int for_each_case(Compare compare) {
   int compared = 0;
   for (std::size_t n : {8, 50, 2000})
     for (double missing : {0.0, 0.2, 0.6})
       for (const std::vector<double>& variances :
            {std::vector<double>{1.0, 1.0}, {0.3, 1e-10}, {1e-10, 0.7}, {2.5, 0.01}, {1e-300, 1e-300}}) {
-        const auto y = invented(n, missing, 17 + n);
-        const ss::LikelihoodParts fast = ss::filter_likelihood(model, y, variances);
-        const ss::LikelihoodParts general = ss::filter_likelihood_general(model, y, variances);
         CAPTURE(n);
         CAPTURE(missing);
         CAPTURE(variances[0]);
-        CHECK(fast.observed == general.observed);
-        CHECK(fast.diffuse == general.diffuse);
-        CHECK(fast.finite == general.finite);
-        CHECK(same_bits(fast.sum_v2_over_f, general.sum_v2_over_f));
-        CHECK(same_bits(fast.sum_log_f, general.sum_log_f));
-        CHECK(same_bits(fast.sum_log_f_inf, general.sum_log_f_inf));
-        CHECK(same_bits(fast.concentrated_log_likelihood(), general.concentrated_log_likelihood()));
+        compare(n, invented(n, missing, 17 + n), variances);
         ++compared;
       }
+  return compared;
+}
+
+}  // namespace
+
+TEST_CASE("local level: the likelihood pass equals the general matrix pass bit for bit") {
+  const auto model = ss::StructuralModel::local_level();
+  const int compared = for_each_case([&](std::size_t, const std::vector<double>& y,
+                                        const std::vector<double>& variances) {
+    const ss::LikelihoodParts fast = ss::filter_likelihood(model, y, variances);
+    const ss::LikelihoodParts general = ss::filter_likelihood_general(model, y, variances);
+    CHECK(fast.observed == general.observed);
+    CHECK(fast.diffuse == general.diffuse);
+    CHECK(fast.finite == general.finite);
+    CHECK(same_bits(fast.sum_v2_over_f, general.sum_v2_over_f));
+    CHECK(same_bits(fast.sum_log_f, general.sum_log_f));
+    CHECK(same_bits(fast.sum_log_f_inf, general.sum_log_f_inf));
+    CHECK(same_bits(fast.concentrated_log_likelihood(), general.concentrated_log_likelihood()));
+  });
   CHECK(compared == 45);
 }
 
@@ -69,42 +79,34 @@ TEST_CASE("local level: the scalar smoother gives the general smoother's moments
   // smooth_signal takes the scalar path for the local level; smooth_signal_general
   // runs the matrix filter and smoother (state_space_augmented.cpp) on the same data.
   const auto model = ss::StructuralModel::local_level();
-  int compared = 0;
-  for (std::size_t n : {8, 50, 2000})
-    for (double missing : {0.0, 0.2, 0.6})
-      for (const std::vector<double>& variances :
-           {std::vector<double>{1.0, 1.0}, {0.3, 1e-10}, {1e-10, 0.7}, {2.5, 0.01}, {1e-300, 1e-300}}) {
-        const auto y = invented(n, missing, 17 + n);
-        const ss::SmoothedSignal fast = ss::smooth_signal(model, y, variances);
-        const ss::SmoothedSignal general = ss::smooth_signal_general(model, y, variances);
-        CAPTURE(n);
-        CAPTURE(missing);
-        CAPTURE(variances[0]);
-        REQUIRE(fast.mean.size() == n);
-        REQUIRE(fast.variance.size() == n);
-        CHECK(fast.likelihood.observed == general.likelihood.observed);
-        CHECK(fast.likelihood.diffuse == general.likelihood.diffuse);
-        CHECK(fast.likelihood.effective() == general.likelihood.effective());
-        CHECK(fast.likelihood.finite);
-        CHECK(fast.likelihood.prior_resolved);
-        CHECK(fast.likelihood.sum_v2_over_f ==
-              doctest::Approx(general.likelihood.sum_v2_over_f).epsilon(1e-11));
-        CHECK(fast.likelihood.sum_log_f - general.likelihood.sum_log_f ==
-              doctest::Approx(0.0).scale(1.0).epsilon(1e-9 * (1 + std::abs(general.likelihood.sum_log_f))));
-        double worst_mean = 0, worst_variance = 0;
-        for (std::size_t t = 0; t < n; ++t) {
-          // in smoothed standard deviations, or relative where those vanish (variances 1e-300)
-          const double sd = std::sqrt(general.variance[t]) + 1e-6 * (1 + std::abs(general.mean[t]));
-          worst_mean = std::max(worst_mean, std::abs(fast.mean[t] - general.mean[t]) / sd);
-          worst_variance =
-              std::max(worst_variance, std::abs(fast.variance[t] - general.variance[t]) / general.variance[t]);
-        }
-        CAPTURE(worst_mean);
-        CAPTURE(worst_variance);
-        CHECK(worst_mean < 1e-7);
-        CHECK(worst_variance < 1e-7);  // relative
-        ++compared;
-      }
+  const int compared = for_each_case([&](std::size_t n, const std::vector<double>& y,
+                                        const std::vector<double>& variances) {
+    const ss::SmoothedSignal fast = ss::smooth_signal(model, y, variances);
+    const ss::SmoothedSignal general = ss::smooth_signal_general(model, y, variances);
+    REQUIRE(fast.mean.size() == n);
+    REQUIRE(fast.variance.size() == n);
+    CHECK(fast.likelihood.observed == general.likelihood.observed);
+    CHECK(fast.likelihood.diffuse == general.likelihood.diffuse);
+    CHECK(fast.likelihood.effective() == general.likelihood.effective());
+    CHECK(fast.likelihood.finite);
+    CHECK(fast.likelihood.prior_resolved);
+    CHECK(fast.likelihood.sum_v2_over_f ==
+          doctest::Approx(general.likelihood.sum_v2_over_f).epsilon(1e-11));
+    CHECK(fast.likelihood.sum_log_f - general.likelihood.sum_log_f ==
+          doctest::Approx(0.0).scale(1.0).epsilon(1e-9 * (1 + std::abs(general.likelihood.sum_log_f))));
+    double worst_mean = 0, worst_variance = 0;
+    for (std::size_t t = 0; t < n; ++t) {
+      // in smoothed standard deviations, or relative where those vanish (variances 1e-300)
+      const double sd = std::sqrt(general.variance[t]) + 1e-6 * (1 + std::abs(general.mean[t]));
+      worst_mean = std::max(worst_mean, std::abs(fast.mean[t] - general.mean[t]) / sd);
+      worst_variance =
+          std::max(worst_variance, std::abs(fast.variance[t] - general.variance[t]) / general.variance[t]);
+    }
+    CAPTURE(worst_mean);
+    CAPTURE(worst_variance);
+    CHECK(worst_mean < 1e-7);
+    CHECK(worst_variance < 1e-7);  // relative
+  });
   CHECK(compared == 45);
 }
 
