@@ -10,7 +10,7 @@
 namespace gapmark::python {
 namespace {
 
-using Choices = std::vector<std::pair<std::string, std::string>>;  // (column or "" for every column, choice)
+using Choices = data::ColumnChoices;  // (column or "" for every column, choice)
 
 data::RawData raw_from_text(const std::string& csv, const std::string& source, const std::vector<std::string>& groups) {
   data::RawReadOptions read;
@@ -33,18 +33,8 @@ std::string regularize(const std::string& csv, const std::string& source, const 
   const data::RawData raw = raw_from_text(csv, source, groups);
   data::RegularizeOptions options;
   options.step = Step::parse(step, "step");
-  for (const auto& choice : agg) {
-    const auto a = data::parse_aggregation(choice.second, "agg");
-    if (choice.first.empty()) options.default_aggregation = a;
-    else options.aggregation[choice.first] = a;
-  }
-  for (const auto& choice : empty) {
-    const auto e = data::parse_empty_policy(choice.second, "empty");
-    if (!choice.first.empty()) options.empty[choice.first] = e;
-  }
-  for (const auto& choice : empty)  // a policy for every column, under the named ones
-    if (choice.first.empty())
-      for (const auto& v : raw.value_columns) options.empty.emplace(v, data::parse_empty_policy(choice.second, "empty"));
+  data::set_aggregations(options, agg, "agg");
+  data::set_empty_policies(options, empty, "empty");
   const data::Panel panel = data::regularize(raw, options);
   return data::panel_csv(panel, groups.empty() ? data::PanelLayout::Wide : data::PanelLayout::Long);
 }

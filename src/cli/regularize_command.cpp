@@ -7,6 +7,7 @@
 #include "commands.hpp"
 #include "output_rules.hpp"
 #include "gapmark/data/regularize.hpp"
+#include "gapmark/data/regularize_report.hpp"
 #include "gapmark/error.hpp"
 #include "gapmark/number_format.hpp"
 
@@ -14,7 +15,8 @@ namespace gapmark::cli {
 namespace {
 
 /// Parses "col=value,col=value" (repeatable); a bare "value" sets the default (key "").
-std::map<std::string, std::string> column_choices(const std::vector<std::string>& items, const std::string& option) {
+/// A column or the default may be named once.
+data::ColumnChoices column_choices(const std::vector<std::string>& items, const std::string& option) {
   std::map<std::string, std::string> out;
   for (const auto& item : data::split_names(items)) {
     const auto eq = item.find('=');
@@ -24,7 +26,7 @@ std::map<std::string, std::string> column_choices(const std::vector<std::string>
       throw InputError(option, "expected COLUMN=VALUE or VALUE, found '" + item + "'");
     if (!out.emplace(key, value).second) throw InputError(option, "'" + (key.empty() ? value : key) + "' is given twice");
   }
-  return out;
+  return {out.begin(), out.end()};
 }
 
 }  // namespace
@@ -74,49 +76,12 @@ void add_regularize(CLI::App& app, Action& action) {
       data::RegularizeOptions options;
       options.step = Step::parse(o->step, "--step");
       options.shared_span = o->span == "shared";
-      for (const auto& [column, name] : column_choices(o->agg, "--agg")) {
-        const auto a = data::parse_aggregation(name, "--agg");
-        if (column.empty()) options.default_aggregation = a;
-        else options.aggregation[column] = a;
-      }
-      std::optional<data::EmptyPolicy> default_empty;
-      for (const auto& [column, name] : column_choices(o->empty, "--empty")) {
-        const auto e = data::parse_empty_policy(name, "--empty");
-        if (column.empty()) default_empty = e;
-        else options.empty[column] = e;
-      }
-      if (default_empty)
-        for (const auto& v : raw.value_columns) options.empty.emplace(v, *default_empty);
-
+      data::set_aggregations(options, column_choices(o->agg, "--agg"), "--agg");
+      data::set_empty_policies(options, column_choices(o->empty, "--empty"), "--empty");
       const data::Panel panel = data::regularize(raw, options);
       const bool long_layout = o->layout.empty() ? !raw.group_columns.empty() : o->layout == "long";
       write_file_atomically(o->out, data::panel_csv(panel, long_layout ? data::PanelLayout::Long : data::PanelLayout::Wide));
-
-      // What happened, per variable over all groups.
-      std::cerr << "regularize: " << raw.row_count() << " rows -> " << panel.axes.size() << " group"
-                << (panel.axes.size() == 1 ? "" : "s") << " on a " << options.step.iso() << " grid, written to " << o->out << "\n";
-      for (std::size_t v = 0; v < panel.value_columns.size(); ++v) {
-        data::RegularizeCounts total;
-        for (const auto& g : panel.counts) {
-          total.bins += g[v].bins;
-          total.filled_bins += g[v].filled_bins;
-          total.empty_bins += g[v].empty_bins;
-          total.empty_value_bins += g[v].empty_value_bins;
-          total.partial += g[v].partial;
-        }
-        const bool zero = panel.empty[v] == data::EmptyPolicy::Zero;
-        std::cerr << "  " << panel.value_columns[v] << " (" << data::aggregation_name(panel.aggregation[v])
-                  << ", empty intervals " << data::empty_policy_name(panel.empty[v]) << "): " << total.bins
-                  << " intervals, " << total.filled_bins << " with values, " << total.empty_bins << " without rows"
-                  << (zero ? " written as 0" : " left empty") << ", " << total.empty_value_bins
-                  << " with rows but no value (left empty)";
-        if (total.partial) std::cerr << ", " << total.partial << " aggregated over rows with some empty cells";
-        std::cerr << "\n";
-        const auto a = panel.aggregation[v];
-        if (!zero && total.empty_bins > 0 && (a == data::Aggregation::Sum || a == data::Aggregation::Count))
-          std::cerr << "  note: '" << panel.value_columns[v] << "' is a " << data::aggregation_name(a)
-                    << "; if no row means nothing happened, give --empty " << panel.value_columns[v] << "=zero\n";
-      }
+      std::cerr << data::regularize_report(panel, raw.row_count(), options.step, o->out);
       return kOk;
     };
   });

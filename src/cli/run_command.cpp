@@ -94,22 +94,90 @@ void print_warnings(const std::vector<Warning>& warnings) {
     std::cerr << "... and " << warnings.size() - shown << " more warnings (all are listed in results.json)\n";
 }
 
+struct RunCommandOptions {
+  std::string spec;
+  std::string out;
+  std::string resume;
+  std::string shard;
+  unsigned threads = 0;
+  std::size_t period = 0;
+  bool quiet = false;
+  bool force = false;
+  bool allow_external = false;
+  CLI::Option* resume_option = nullptr;
+};
+
+/// The folder the run writes: the folder --resume names, else --out, else
+/// the spec's "output"; --resume and --out may not name two folders.
+void choose_output_folder(ExperimentSpec& spec, const RunCommandOptions& o, bool resume) {
+  if (resume && !o.resume.empty() && !o.out.empty() &&
+      std::filesystem::path(o.resume).lexically_normal() != std::filesystem::path(o.out).lexically_normal())
+    throw InputError("--resume", "names folder " + o.resume + " but --out names " + o.out + "; give one");
+  if (!o.out.empty()) spec.output = o.out;
+  if (resume && !o.resume.empty()) spec.output = o.resume;
+  if (o.out.empty() && o.resume.empty() && !spec_output_problem(spec).empty())
+    throw InputError("", spec_output_problem(spec));
+}
+
+/// The output rules: the folder holds none of the inputs, nor an earlier
+/// output unless --force or --resume, and a resumed folder exists.
+void check_run_folder(const ExperimentSpec& spec, const RunCommandOptions& o, bool resume) {
+  std::vector<std::filesystem::path> inputs{o.spec};
+  for (const auto& d : spec.data) inputs.push_back(d.path);
+  check_output_dir(spec.output, inputs, o.force || resume, "give another --out");
+  if (resume && !std::filesystem::exists(spec.output))
+    throw InputError(spec.output.string(), "nothing to resume: no such folder");
+}
+
+/// What the user is told when the run stops: how to resume an interrupted
+/// run, or the warnings and what was written. Returns the exit status.
+int tell_outcome(const FolderRunStatus& status, const ExperimentSpec& spec, const RunCommandOptions& o) {
+  if (!status.complete()) {
+    std::cerr << (stop_signal() == SIGTERM ? "terminated: " : "interrupted: ") << status.done << " of " << status.total
+              << " tasks done; resume with: gapmark run " << shell_word(o.spec)
+              << (status.shard.whole() ? "" : " --shard " + status.shard.text()) << " --resume "
+              << shell_word(spec.output.string()) << "\n";
+    return stopped_exit_status();
+  }
+  if (o.quiet) return kOk;
+  print_warnings(status.warnings);
+  if (status.shard.whole())
+    std::cerr << "wrote " << status.written.size() << " files to " << spec.output.string() << "\n";
+  else
+    std::cerr << "shard " << status.shard.text() << " done: " << status.total << " tasks in " << spec.output.string()
+              << "; when every shard is done: gapmark merge FOLDER... --out FOLDER\n";
+  return kOk;
+}
+
+int run_command(const RunCommandOptions& o) {
+  ExperimentSpec spec = load_spec(o.spec);
+  if (refused_external(spec, o.allow_external, "run it")) return kBadInput;
+  if (o.period) spec = with_period(spec, o.period);
+  const bool resume = o.resume_option->count() > 0;
+  choose_output_folder(spec, o, resume);
+  check_run_folder(spec, o, resume);
+  const OutputDir folder_made(spec.output);
+  const FolderLock lock(spec.output);  // one run per folder, held until the reports are written
+  remove_stale_temp_files(spec.output);
+  FolderRunOptions folder{spec.output, resume, std::nullopt, {}, {}};
+  if (!o.quiet)
+    folder.before_reports = [&spec] {
+      std::cerr << "all tasks done; summarising and writing the reports to " << spec.output.string() << "\n";
+    };
+  if (!o.shard.empty()) folder.shard = Shard::parse(o.shard, "--shard");
+
+  RunOptions options;
+  options.threads = o.threads ? o.threads : std::max(1u, std::thread::hardware_concurrency());
+  options.progress = progress_printer(o.quiet);
+  options.stop = &stop_flag();
+  catch_stop_signals(external_commands(spec).empty() ? StoppedWork::tasks : StoppedWork::tasks_with_programs);
+  return tell_outcome(run_into_folder(spec, options, folder), spec, o);
+}
+
 }  // namespace
 
 void add_run(CLI::App& app, Action& action) {
-  struct Options {
-    std::string spec;
-    std::string out;
-    std::string resume;
-    std::string shard;
-    unsigned threads = 0;
-    std::size_t period = 0;
-    bool quiet = false;
-    bool force = false;
-    bool allow_external = false;
-    CLI::Option* resume_option = nullptr;
-  };
-  auto o = std::make_shared<Options>();
+  auto o = std::make_shared<RunCommandOptions>();
   auto* cmd = app.add_subcommand("run", "Run an experiment spec: mask, fill, score, rank, report");
   cmd->add_option("SPEC", o->spec, "Experiment spec (JSON)")->required();
   cmd->add_option("--out,-o", o->out, "Output folder (default: the spec's \"output\")");
@@ -129,59 +197,7 @@ void add_run(CLI::App& app, Action& action) {
   cmd->add_flag("--quiet,-q", o->quiet, "No progress output");
   add_force_flag(*cmd, o->force);
   add_consent_flag(*cmd, o->allow_external);
-  cmd->callback([&action, o] {
-    action = [o] {
-      ExperimentSpec spec = load_spec(o->spec);
-      if (refused_external(spec, o->allow_external, "run it")) return kBadInput;
-      if (o->period) spec = with_period(spec, o->period);
-      const bool resume = o->resume_option->count() > 0;
-      if (resume && !o->resume.empty() && !o->out.empty() &&
-          std::filesystem::path(o->resume).lexically_normal() != std::filesystem::path(o->out).lexically_normal())
-        throw InputError("--resume", "names folder " + o->resume + " but --out names " + o->out + "; give one");
-      if (!o->out.empty()) spec.output = o->out;
-      if (resume && !o->resume.empty()) spec.output = o->resume;
-      if (o->out.empty() && o->resume.empty() && !spec_output_problem(spec).empty())
-        throw InputError("", spec_output_problem(spec));
-      std::vector<std::filesystem::path> inputs{o->spec};
-      for (const auto& d : spec.data) inputs.push_back(d.path);
-      check_output_dir(spec.output, inputs, o->force || resume, "give another --out");
-      if (resume && !std::filesystem::exists(spec.output))
-        throw InputError(spec.output.string(), "nothing to resume: no such folder");
-      const OutputDir folder_made(spec.output);
-      const FolderLock lock(spec.output);  // one run per folder, held until the reports are written
-      remove_stale_temp_files(spec.output);
-      FolderRunOptions folder{spec.output, resume, std::nullopt, {}, {}};
-      if (!o->quiet)
-        folder.before_reports = [&spec] {
-          std::cerr << "all tasks done; summarising and writing the reports to " << spec.output.string() << "\n";
-        };
-      if (!o->shard.empty()) folder.shard = Shard::parse(o->shard, "--shard");
-
-      RunOptions options;
-      options.threads = o->threads ? o->threads : std::max(1u, std::thread::hardware_concurrency());
-      options.progress = progress_printer(o->quiet);
-      options.stop = &stop_flag();
-      catch_stop_signals(external_commands(spec).empty() ? StoppedWork::tasks : StoppedWork::tasks_with_programs);
-      const FolderRunStatus status = run_into_folder(spec, options, folder);
-
-      if (!status.complete()) {
-        std::cerr << (stop_signal() == SIGTERM ? "terminated: " : "interrupted: ") << status.done << " of " << status.total
-                  << " tasks done; resume with: gapmark run " << shell_word(o->spec)
-                  << (status.shard.whole() ? "" : " --shard " + status.shard.text()) << " --resume "
-                  << shell_word(spec.output.string()) << "\n";
-        return stopped_exit_status();
-      }
-      if (!o->quiet) {
-        print_warnings(status.warnings);
-        if (status.shard.whole())
-          std::cerr << "wrote " << status.written.size() << " files to " << spec.output.string() << "\n";
-        else
-          std::cerr << "shard " << status.shard.text() << " done: " << status.total << " tasks in "
-                    << spec.output.string() << "; when every shard is done: gapmark merge FOLDER... --out FOLDER\n";
-      }
-      return kOk;
-    };
-  });
+  cmd->callback([&action, o] { action = [o] { return run_command(*o); }; });
 }
 
 }  // namespace gapmark::cli

@@ -111,6 +111,22 @@ std::string aggregation_name(Aggregation a) {
 
 std::string empty_policy_name(EmptyPolicy e) { return e == EmptyPolicy::Zero ? "zero" : "missing"; }
 
+void set_aggregations(RegularizeOptions& options, const ColumnChoices& choices, const std::string& where) {
+  for (const auto& [column, name] : choices) {
+    const Aggregation a = parse_aggregation(name, where);
+    if (column.empty()) options.default_aggregation = a;
+    else options.aggregation[column] = a;
+  }
+}
+
+void set_empty_policies(RegularizeOptions& options, const ColumnChoices& choices, const std::string& where) {
+  for (const auto& [column, name] : choices) {
+    const EmptyPolicy e = parse_empty_policy(name, where);
+    if (column.empty()) options.default_empty = e;
+    else options.empty[column] = e;
+  }
+}
+
 Panel regularize(const RawData& raw, const RegularizeOptions& options) {
   check_binning_step(raw.kind, options.step, "--step");
   for (const auto& [name, a] : options.aggregation)
@@ -131,7 +147,7 @@ Panel regularize(const RawData& raw, const RegularizeOptions& options) {
     auto a = options.aggregation.find(name);
     panel.aggregation.push_back(a == options.aggregation.end() ? options.default_aggregation : a->second);
     auto e = options.empty.find(name);
-    panel.empty.push_back(e == options.empty.end() ? EmptyPolicy::Missing : e->second);
+    panel.empty.push_back(e == options.empty.end() ? options.default_empty : e->second);
   }
 
   // Parse every value once; text is an error unless the column is counted.

@@ -5,6 +5,7 @@
 #include "data_helpers.hpp"
 #include "data/decimal_sum.hpp"
 #include "gapmark/data/regularize.hpp"
+#include "gapmark/data/regularize_report.hpp"
 
 using namespace gapmark;
 using namespace gapmark::data;
@@ -186,4 +187,40 @@ TEST_CASE("sums add the cells as written, exactly") {
   gapmark::data::DecimalSum n;
   n.add("-0.25", -0.25);
   CHECK(n.text() == "-0.25");
+}
+
+TEST_CASE("regularize: choices per column with a default, and the report per variable") {
+  RegularizeOptions o;
+  o.step = Step::parse("PT1H");
+  set_aggregations(o, {{"", "sum"}, {"oxygen", "max"}, {"oxygen", "mean"}}, "--agg");  // the later choice counts
+  set_empty_policies(o, {{"", "zero"}, {"oxygen", "missing"}}, "--empty");
+  CHECK(o.default_aggregation == Aggregation::Sum);
+  CHECK(o.aggregation.at("oxygen") == Aggregation::Mean);
+  const Panel p = regularize(data_test::raw(kEvents, by_pen()), o);
+  CHECK(p.empty == std::vector<EmptyPolicy>{EmptyPolicy::Zero, EmptyPolicy::Missing});  // the default reaches feed_kg
+  CHECK(p.cells[0][0] == std::vector<std::string>{"4", "0", "", "4"});
+  CHECK_THROWS_WITH_AS(set_empty_policies(o, {{"feed_kg", "nothing"}}, "--empty"), doctest::Contains("--empty"),
+                       InputError);
+
+  // Hand-counted over both pens: feed_kg 8 intervals, A 09 has rows but no
+  // value, 08 (A, B) and 09 (B) have no rows; oxygen likewise, and A 07 is
+  // a mean over one empty cell.
+  const RegularizeCounts feed = total_counts(p, 0);
+  CHECK(feed.bins == 8);
+  CHECK(feed.empty_bins == 3);
+  CHECK(feed.empty_value_bins == 1);
+  const std::string text = regularize_report(p, 6, o.step, "out.csv");
+  CHECK(text.rfind("regularize: 6 rows -> 2 groups on a PT1H grid, written to out.csv\n", 0) == 0);
+  CHECK(text.find("  oxygen (mean, empty intervals missing): 8 intervals, 4 with values, 3 without rows left empty, "
+                  "1 with rows but no value (left empty), 1 aggregated over rows with some empty cells\n") !=
+        std::string::npos);
+  CHECK(text.find("feed_kg (sum, empty intervals zero)") != std::string::npos);
+  CHECK(text.find("written as 0") != std::string::npos);
+  CHECK(text.find("note:") == std::string::npos);  // a sum with zero for empty intervals needs no note
+
+  set_empty_policies(o, {{"feed_kg", "missing"}}, "--empty");
+  const Panel missing = regularize(data_test::raw(kEvents, by_pen()), o);
+  CHECK(regularize_report(missing, 6, o.step, "out.csv")
+            .find("  note: 'feed_kg' is a sum; if no row means nothing happened, give --empty feed_kg=zero\n") !=
+        std::string::npos);
 }

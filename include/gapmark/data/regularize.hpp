@@ -23,6 +23,7 @@
 #include <map>
 #include <optional>
 #include <string>
+#include <utility>
 #include <vector>
 
 #include "gapmark/raw_table.hpp"
@@ -43,9 +44,20 @@ struct RegularizeOptions {
   Step step;
   std::map<std::string, Aggregation> aggregation;  ///< per value column; absent: `default_aggregation`
   Aggregation default_aggregation = Aggregation::Mean;
-  std::map<std::string, EmptyPolicy> empty;        ///< per value column; absent: missing
+  std::map<std::string, EmptyPolicy> empty;        ///< per value column; absent: `default_empty`
+  EmptyPolicy default_empty = EmptyPolicy::Missing;
   bool shared_span = true;                         ///< every group over the span of all rows, or its own
 };
+
+/// A user's choices per column, in order: (column, choice); the column ""
+/// sets the default for the columns not named.
+using ColumnChoices = std::vector<std::pair<std::string, std::string>>;
+
+/// Sets the aggregations, or the empty-interval policies, from a user's
+/// choices (names read by parse_aggregation or parse_empty_policy; an error
+/// names `where`). A later choice for a column replaces an earlier one.
+void set_aggregations(RegularizeOptions& options, const ColumnChoices& choices, const std::string& where);
+void set_empty_policies(RegularizeOptions& options, const ColumnChoices& choices, const std::string& where);
 
 /// What happened to one series (group × variable) on its grid.
 struct RegularizeCounts {
