@@ -13,7 +13,7 @@
 #include "gapmark/table_io.hpp"
 #include "gapmark/wide_write.hpp"
 
-namespace gapmark::data {
+namespace gapmark {
 
 struct LongReadOptions {
   std::string time_column;                 ///< empty: the first column that is not a group column
@@ -48,4 +48,4 @@ LongAsWide long_to_wide(const CsvTable& csv, const LongReadOptions& options);
 /// column "<variable><suffix>".
 std::string long_csv(const LongAsWide& layout, const WideTable& table, const std::vector<ExtraColumn>& extra = {});
 
-}  // namespace gapmark::data
+}  // namespace gapmark

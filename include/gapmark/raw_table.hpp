@@ -13,7 +13,7 @@
 #include "gapmark/table_io.hpp"
 #include "gapmark/time_axis.hpp"
 
-namespace gapmark::data {
+namespace gapmark {
 
 struct RawReadOptions {
   std::string time_column;                 ///< empty: the first column that is not a group column
@@ -65,4 +65,4 @@ std::vector<std::string> split_names(const std::vector<std::string>& items);
 /// Parses a UTC offset "+01:00", "-0530", "Z" into minutes; InputError naming `where`.
 int parse_utc_offset(const std::string& text, const std::string& where);
 
-}  // namespace gapmark::data
+}  // namespace gapmark

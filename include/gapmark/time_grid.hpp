@@ -14,7 +14,7 @@
 
 #include "gapmark/time_axis.hpp"
 
-namespace gapmark::data {
+namespace gapmark {
 
 /// Checks that a step fits times of this kind: an integer step for integer
 /// times, an ISO 8601 one for dated times, whole days or more for dates.
@@ -74,4 +74,4 @@ inline constexpr std::int64_t kMaxGridPoints = 50'000'000;
 /// that overflowed is passed as a negative number) at `step`.
 void check_grid_size(std::int64_t points, const Step& step, const std::string& where);
 
-}  // namespace gapmark::data
+}  // namespace gapmark

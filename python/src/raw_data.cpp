@@ -12,15 +12,15 @@ namespace {
 
 using Choices = data::ColumnChoices;  // (column or "" for every column, choice)
 
-data::RawData raw_from_text(const std::string& csv, const std::string& source, const std::vector<std::string>& groups) {
-  data::RawReadOptions read;
+RawData raw_from_text(const std::string& csv, const std::string& source, const std::vector<std::string>& groups) {
+  RawReadOptions read;
   read.group_columns = groups;
-  return data::parse_raw(parse_csv(csv, source), read);
+  return parse_raw(parse_csv(csv, source), read);
 }
 
 py::tuple profile(const std::string& csv, const std::string& source, const std::vector<std::string>& groups,
                   const std::string& step, std::size_t period) {
-  const data::RawData raw = raw_from_text(csv, source, groups);
+  const RawData raw = raw_from_text(csv, source, groups);
   data::ProfileOptions options;
   if (!step.empty()) options.step = Step::parse(step, "step");
   options.period = period;
@@ -30,7 +30,7 @@ py::tuple profile(const std::string& csv, const std::string& source, const std::
 
 std::string regularize(const std::string& csv, const std::string& source, const std::vector<std::string>& groups,
                        const std::string& step, const Choices& agg, const Choices& empty) {
-  const data::RawData raw = raw_from_text(csv, source, groups);
+  const RawData raw = raw_from_text(csv, source, groups);
   data::RegularizeOptions options;
   options.step = Step::parse(step, "step");
   data::set_aggregations(options, agg, "agg");

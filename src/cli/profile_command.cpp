@@ -37,11 +37,11 @@ void add_profile(CLI::App& app, Action& action) {
         check_output_file(o->svg, o->force);
         check_file_is_no_input(o->svg, {o->input});
       }
-      data::RawReadOptions read;
+      RawReadOptions read;
       read.time_column = o->time_column;
-      read.group_columns = data::split_names(o->group);
-      read.value_columns = data::split_names(o->columns);
-      const data::RawData raw = data::read_raw(o->input, read);
+      read.group_columns = split_names(o->group);
+      read.value_columns = split_names(o->columns);
+      const RawData raw = read_raw(o->input, read);
       data::ProfileOptions options;
       if (!o->step.empty()) options.step = Step::parse(o->step, "--step");
       options.period = o->period;

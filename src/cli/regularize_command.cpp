@@ -18,7 +18,7 @@ namespace {
 /// A column or the default may be named once.
 data::ColumnChoices column_choices(const std::vector<std::string>& items, const std::string& option) {
   std::map<std::string, std::string> out;
-  for (const auto& item : data::split_names(items)) {
+  for (const auto& item : split_names(items)) {
     const auto eq = item.find('=');
     const std::string key = eq == std::string::npos ? "" : std::string(trim(item.substr(0, eq)));
     const std::string value = std::string(trim(eq == std::string::npos ? item : item.substr(eq + 1)));
@@ -66,12 +66,12 @@ void add_regularize(CLI::App& app, Action& action) {
     action = [o] {
       check_output_file(o->out, o->force);
       check_file_is_no_input(o->out, {o->input});
-      data::RawReadOptions read;
+      RawReadOptions read;
       read.time_column = o->time_column;
-      read.group_columns = data::split_names(o->group);
-      read.value_columns = data::split_names(o->columns);
-      if (!o->utc_offset.empty()) read.utc_offset_minutes = data::parse_utc_offset(o->utc_offset, "--utc-offset");
-      const data::RawData raw = data::read_raw(o->input, read);
+      read.group_columns = split_names(o->group);
+      read.value_columns = split_names(o->columns);
+      if (!o->utc_offset.empty()) read.utc_offset_minutes = parse_utc_offset(o->utc_offset, "--utc-offset");
+      const RawData raw = read_raw(o->input, read);
 
       data::RegularizeOptions options;
       options.step = Step::parse(o->step, "--step");

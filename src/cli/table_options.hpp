@@ -46,30 +46,30 @@ struct TableOptions {
           throw InputError("--column", "'" + columns[i] + "' is given twice; name each column once");
     std::optional<Step> parsed;
     if (!step.empty()) parsed = Step::parse(step, "--step");
-    const auto groups = data::split_names(group);
+    const auto groups = split_names(group);
     if (groups.empty()) {
       WideReadOptions o;
       o.time_column = time_column;
       o.step = parsed;
       return read_wide_csv(input, o);
     }
-    data::LongReadOptions o;
+    LongReadOptions o;
     o.time_column = time_column;
     o.group_columns = groups;
     o.value_columns = columns;
     o.step = parsed;
-    long_layout_ = data::long_to_wide(read_csv(input), o);
+    long_layout_ = long_to_wide(read_csv(input), o);
     columns.clear();
     return long_layout_->table;
   }
 
   /// The table as CSV in the layout it was read in (long with --group).
   std::string write(const WideTable& table, const std::vector<ExtraColumn>& extra = {}) const {
-    return long_layout_ ? data::long_csv(*long_layout_, table, extra) : write_wide_csv(table, extra);
+    return long_layout_ ? long_csv(*long_layout_, table, extra) : write_wide_csv(table, extra);
   }
 
 private:
-  std::optional<data::LongAsWide> long_layout_;
+  std::optional<LongAsWide> long_layout_;
 };
 
 }  // namespace gapmark::cli

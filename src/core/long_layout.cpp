@@ -11,7 +11,7 @@
 #include "gapmark/text_safety.hpp"
 #include "gapmark/number_format.hpp"
 
-namespace gapmark::data {
+namespace gapmark {
 namespace {
 
 struct GroupAxes {
@@ -190,4 +190,4 @@ std::string long_csv(const LongAsWide& layout, const WideTable& table, const std
   return to_csv(header, rows);
 }
 
-}  // namespace gapmark::data
+}  // namespace gapmark

@@ -9,7 +9,7 @@
 #include "gapmark/error.hpp"
 #include "gapmark/number_format.hpp"
 
-namespace gapmark::data {
+namespace gapmark {
 namespace {
 
 std::string join(const std::vector<std::string>& names) {
@@ -197,4 +197,4 @@ RawData read_raw(const std::filesystem::path& path, const RawReadOptions& option
   return parse_raw(read_csv(path), options);
 }
 
-}  // namespace gapmark::data
+}  // namespace gapmark

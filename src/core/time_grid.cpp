@@ -10,7 +10,7 @@
 #include "gapmark/calendar.hpp"
 #include "gapmark/error.hpp"
 
-namespace gapmark::data {
+namespace gapmark {
 namespace {
 
 using namespace calendar;
@@ -144,4 +144,4 @@ std::optional<Step> infer_step(TimeKind kind, std::span<const std::int64_t> sort
   return Step{Step::Unit::Seconds, best};
 }
 
-}  // namespace gapmark::data
+}  // namespace gapmark

@@ -49,7 +49,7 @@ std::vector<Series> load_wide(const CsvTable& csv, const DataSource& src, const 
 }
 
 std::vector<Series> load_long(const CsvTable& csv, const DataSource& src, const std::string& spec_source) {
-  data::LongReadOptions options;
+  LongReadOptions options;
   options.time_column = src.time_column;
   options.group_columns = src.groups;
   options.value_columns = src.columns;
@@ -62,7 +62,7 @@ std::vector<Series> load_long(const CsvTable& csv, const DataSource& src, const 
     if (std::find(csv.header.begin(), csv.header.end(), src.columns[k]) == csv.header.end())
       throw InputError(spec_source + ": " + src.where + "/columns/" + std::to_string(k),
                        "no column '" + src.columns[k] + "' in " + src.path.string());
-  return data::read_long_series(csv, options);
+  return read_long_series(csv, options);
 }
 
 }  // namespace

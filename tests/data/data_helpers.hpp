@@ -13,8 +13,8 @@
 
 namespace data_test {
 
-inline gapmark::data::RawData raw(const std::string& text, gapmark::data::RawReadOptions options = {}) {
-  return gapmark::data::parse_raw(gapmark::parse_csv(text, "data.csv"), options);
+inline gapmark::RawData raw(const std::string& text, gapmark::RawReadOptions options = {}) {
+  return gapmark::parse_raw(gapmark::parse_csv(text, "data.csv"), options);
 }
 
 template <class F>

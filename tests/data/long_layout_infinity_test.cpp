@@ -12,13 +12,13 @@
 using namespace gapmark;
 
 TEST_CASE("long layout: an infinite value is refused with the file, line and column") {
-  data::LongReadOptions options;
+  LongReadOptions options;
   options.group_columns = {"site"};
   for (const std::string cell : {"inf", "-Infinity", "1e999", "-1e999"}) {
     CAPTURE(cell);
     const std::string text = "site,time,level\nA,1,1.5\nA,2," + cell + "\nA,3,2.5\nB,1,4\nB,2,5\nB,3,6\n";
     try {
-      (void)data::read_long_series(parse_csv(text, "panel.csv"), options);
+      (void)read_long_series(parse_csv(text, "panel.csv"), options);
       FAIL("an infinite value was accepted");
     } catch (const InputError& e) {
       const std::string message = e.what();
@@ -27,5 +27,5 @@ TEST_CASE("long layout: an infinite value is refused with the file, line and col
   }
   // The same table with a finite value reads (the refusal is about the value).
   const std::string fine = "site,time,level\nA,1,1.5\nA,2,2\nA,3,2.5\nB,1,4\nB,2,5\nB,3,6\n";
-  CHECK(data::read_long_series(parse_csv(fine, "panel.csv"), options).size() == 2);
+  CHECK(read_long_series(parse_csv(fine, "panel.csv"), options).size() == 2);
 }

@@ -13,7 +13,6 @@
 #include "gapmark/experiment/runner.hpp"
 
 using namespace gapmark;
-using namespace gapmark::data;
 
 namespace {
 
