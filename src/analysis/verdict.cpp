@@ -3,6 +3,7 @@
 #include <algorithm>
 #include <cmath>
 #include <map>
+#include <optional>
 
 #include "gapmark/analysis/summary.hpp"
 #include "gapmark/number_format.hpp"
@@ -90,6 +91,139 @@ std::string standing_words(const CellGroup& g, const MethodSummary& m, const std
   return out;
 }
 
+/// What every step of one series' verdict reads: its conditions, the
+/// methods in order of merit (the first is the recommendation) and the
+/// ranking metric.
+struct SeriesFacts {
+  const std::vector<const CellGroup*>& groups;
+  const std::vector<Tally>& order;
+  const Summary& summary;
+  std::size_t rank_col;
+  Direction direction;
+  const Tally& recommended() const { return order.front(); }
+  const std::string& rank_by() const { return summary.rank_by; }
+};
+
+/// The methods as good as the recommendation wherever it is as good as the best.
+std::vector<std::string> equally_good(const SeriesFacts& f) {
+  std::vector<std::string> out;
+  const std::string& rec = f.recommended().method;
+  for (std::size_t i = 1; i < f.order.size(); ++i) {
+    bool all = f.order[i].top > 0;
+    for (const auto* g : f.groups) {
+      const auto* r = find(*g, rec);
+      const auto* o = find(*g, f.order[i].method);
+      if (r && as_good(r->standing) && !(o && as_good(o->standing))) all = false;
+    }
+    if (all) out.push_back(f.order[i].method);
+  }
+  return out;
+}
+
+/// The gain over the mean baseline, averaged over the conditions where both
+/// have a finite score; empty when there is none.
+std::optional<std::string> gain_over_baseline(const SeriesFacts& f) {
+  double gain = 0;
+  std::size_t counted = 0;
+  std::string baseline;
+  for (const auto* g : f.groups) {
+    const auto* r = find(*g, f.recommended().method);
+    const MethodSummary* b = nullptr;
+    for (const auto& m : g->methods)
+      if (base_name(m.method) == "mean") b = &m;
+    if (!r || !b || b == r) continue;
+    const double x = badness(r->metrics[f.rank_col].mean, f.direction);
+    const double y = badness(b->metrics[f.rank_col].mean, f.direction);
+    if (!std::isfinite(x) || !std::isfinite(y) || y == 0) continue;
+    gain += (y - x) / std::abs(y);
+    ++counted;
+    baseline = b->method;
+  }
+  if (!counted) return std::nullopt;
+  const bool lower = f.direction == Direction::Lower;
+  return std::string(lower ? "Its " + f.rank_by() + " is " : "It is ") +
+         rounded_percent(std::abs(gain / static_cast<double>(counted))) +
+         (gain >= 0 ? (lower ? " lower" : " better") : (lower ? " higher" : " worse")) + " than the `" + baseline +
+         "` baseline's" + (counted > 1 ? " (mean over " + std::to_string(counted) + " conditions)" : "") + ".";
+}
+
+/// Why the recommendation: its record, its score per condition, the methods
+/// equally good, its gain over the baseline.
+std::vector<std::string> reasons(const SeriesFacts& f, const std::vector<std::string>& equally) {
+  const Tally& rec = f.recommended();
+  const std::string& rank_by = f.rank_by();
+  std::vector<std::string> out;
+  out.push_back("Best, or within the equivalence margin (" + percent(f.summary.equivalence) + " of the best's " + rank_by +
+                ", paired TOST), in " + std::to_string(rec.top) + " of " + std::to_string(f.groups.size()) +
+                " condition" + (f.groups.size() == 1 ? "" : "s") + ".");
+  for (const auto* g : f.groups) {
+    const auto* m = find(*g, rec.method);
+    if (m == nullptr) continue;
+    out.push_back(condition_name(*g) + ": " + rank_by + " " + value_with_interval(m->metrics[f.rank_col], f.summary.alpha) +
+                  ", " + standing_words(*g, *m, rank_by) + " (" + std::to_string(g->replicates) + " replicates).");
+  }
+  if (!equally.empty()) out.push_back("Shown equally good (best or equivalent wherever it is): " + join_words(equally) + ".");
+  if (auto gain = gain_over_baseline(f)) out.push_back(*gain);
+  return out;
+}
+
+/// The caveats of one condition: where the recommendation is not as good as
+/// the best, where the mean and the paired test disagree, too few replicates.
+void condition_caveats(const SeriesFacts& f, const CellGroup& g, std::vector<std::string>& out) {
+  const Tally& rec = f.recommended();
+  const std::string& rank_by = f.rank_by();
+  const auto* m = find(g, rec.method);
+  if (m && m->standing == Standing::Better)
+    out.push_back("In " + condition_name(g) + " it is not the best by mean: " + g.methods.front().method +
+                  " has the lower mean " + rank_by + ", while " + rec.method + " had the smaller " + rank_by +
+                  " in most replicates (paired signed-rank test). The mean and the paired test disagree when "
+                  "a few replicates weigh heavily; look at that condition's table before relying on either.");
+  else if (m && !as_good(m->standing))
+    out.push_back("In " + condition_name(g) + " it was " + standing_words(g, *m, rank_by) + ".");
+  for (const auto& o : g.methods)
+    if (o.standing == Standing::Better && o.method != rec.method)
+      out.push_back("In " + condition_name(g) + ", " + o.method + " had the smaller " + rank_by +
+                    " in most replicates (paired signed-rank test) while " + g.methods.front().method +
+                    " had the lower mean; the best is the one with the lowest mean, the statistic the "
+                    "equivalence test uses, and the two disagree when a few replicates weigh heavily.");
+  if (g.underpowered())
+    out.push_back("In " + condition_name(g) + ", " + std::to_string(g.replicates) +
+                  " replicates are too few for the paired tests to find any difference among " +
+                  std::to_string(g.methods.size()) + " methods (at least " + std::to_string(g.replicates_needed) +
+                  " are needed): 'not distinguishable' there is no evidence of equal quality.");
+}
+
+/// The other methods not distinguishable from the best in some condition
+/// that had replicates enough: more replicates would decide.
+std::vector<std::string> undecided(const SeriesFacts& f) {
+  std::vector<std::string> out;
+  for (const auto& t : f.order) {
+    if (t.method == f.recommended().method) continue;
+    bool open = false;
+    for (const auto* g : f.groups) {
+      const auto* m = find(*g, t.method);
+      open = open || (m && m->standing == Standing::NotDistinguishable && !g->underpowered());
+    }
+    if (open) out.push_back(t.method);
+  }
+  return out;
+}
+
+/// What to keep in mind: per condition, then failures, then the undecided.
+std::vector<std::string> caveats(const SeriesFacts& f) {
+  std::vector<std::string> out;
+  for (const auto* g : f.groups) condition_caveats(f, *g, out);
+  const Tally& rec = f.recommended();
+  if (rec.failures)
+    out.push_back("It failed or left masked points unfilled in " + std::to_string(rec.failures) + " of " +
+                  std::to_string(rec.trials) + " trials.");
+  const std::vector<std::string> open = undecided(f);
+  if (!open.empty())
+    out.push_back("Neither shown worse than the best nor within the margin in some condition (more replicates "
+                  "would decide): " + join_words(open) + ".");
+  return out;
+}
+
 SeriesVerdict decide_series(const std::string& series, const std::vector<const CellGroup*>& groups,
                             const Summary& summary, const ResultSet& results) {
   SeriesVerdict v;
@@ -97,101 +231,17 @@ SeriesVerdict decide_series(const std::string& series, const std::vector<const C
   v.conditions = groups.size();
   const auto order = tally(groups);
   const std::size_t rank_col = results.column_index(summary.rank_by);
-  const Direction direction = results.columns[rank_col].direction;
-  const std::string& rank_by = summary.rank_by;
-  const std::string margin = percent(summary.equivalence);
   if (order.empty() || order.front().top == 0) {
     v.caveats.push_back("No method could be ranked on this series.");
     return v;
   }
-  const Tally& rec = order.front();
-  v.recommended = rec.method;
-  v.top = rec.top;
-  for (std::size_t i = 1; i < order.size(); ++i) {
-    bool all = order[i].top > 0;
-    for (const auto* g : groups) {
-      const auto* r = find(*g, rec.method);
-      const auto* o = find(*g, order[i].method);
-      if (r && as_good(r->standing) && !(o && as_good(o->standing))) all = false;
-    }
-    if (all) v.equally_good.push_back(order[i].method);
-  }
-
-  // Reasons.
-  v.reasons.push_back("Best, or within the equivalence margin (" + margin + " of the best's " + rank_by +
-                      ", paired TOST), in " + std::to_string(rec.top) + " of " + std::to_string(groups.size()) +
-                      " condition" + (groups.size() == 1 ? "" : "s") + ".");
-  for (const auto* g : groups) {
-    const auto* m = find(*g, rec.method);
-    if (m == nullptr) continue;
-    v.reasons.push_back(condition_name(*g) + ": " + rank_by + " " + value_with_interval(m->metrics[rank_col], summary.alpha) +
-                        ", " + standing_words(*g, *m, rank_by) + " (" + std::to_string(g->replicates) + " replicates).");
-  }
-  if (!v.equally_good.empty())
-    v.reasons.push_back("Shown equally good (best or equivalent wherever it is): " + join_words(v.equally_good) + ".");
-  // The gain over the mean baseline, averaged over the conditions.
-  double gain = 0;
-  std::size_t counted = 0;
-  std::string baseline;
-  for (const auto* g : groups) {
-    const auto* r = find(*g, rec.method);
-    const MethodSummary* b = nullptr;
-    for (const auto& m : g->methods)
-      if (base_name(m.method) == "mean") b = &m;
-    if (!r || !b || b == r) continue;
-    const double x = badness(r->metrics[rank_col].mean, direction), y = badness(b->metrics[rank_col].mean, direction);
-    if (!std::isfinite(x) || !std::isfinite(y) || y == 0) continue;
-    gain += (y - x) / std::abs(y);
-    ++counted;
-    baseline = b->method;
-  }
-  if (counted)
-    v.reasons.push_back(
-        std::string(direction == Direction::Lower ? "Its " + rank_by + " is " : "It is ") +
-        rounded_percent(std::abs(gain / static_cast<double>(counted))) +
-        (gain >= 0 ? (direction == Direction::Lower ? " lower" : " better") : (direction == Direction::Lower ? " higher" : " worse")) +
-        " than the `" + baseline + "` baseline's" + (counted > 1 ? " (mean over " + std::to_string(counted) + " conditions)" : "") +
-        ".");
-
-  // Caveats.
-  for (const auto* g : groups) {
-    const auto* m = find(*g, rec.method);
-    if (m && m->standing == Standing::Better)
-      v.caveats.push_back("In " + condition_name(*g) + " it is not the best by mean: " + g->methods.front().method +
-                          " has the lower mean " + rank_by + ", while " + rec.method + " had the smaller " + rank_by +
-                          " in most replicates (paired signed-rank test). The mean and the paired test disagree when "
-                          "a few replicates weigh heavily; look at that condition's table before relying on either.");
-    else if (m && !as_good(m->standing))
-      v.caveats.push_back("In " + condition_name(*g) + " it was " + standing_words(*g, *m, rank_by) + ".");
-    for (const auto& o : g->methods)
-      if (o.standing == Standing::Better && o.method != rec.method)
-        v.caveats.push_back("In " + condition_name(*g) + ", " + o.method + " had the smaller " + rank_by +
-                            " in most replicates (paired signed-rank test) while " + g->methods.front().method +
-                            " had the lower mean; the best is the one with the lowest mean, the statistic the "
-                            "equivalence test uses, and the two disagree when a few replicates weigh heavily.");
-    if (g->underpowered())
-      v.caveats.push_back("In " + condition_name(*g) + ", " + std::to_string(g->replicates) +
-                          " replicates are too few for the paired tests to find any difference among " +
-                          std::to_string(g->methods.size()) + " methods (at least " +
-                          std::to_string(g->replicates_needed) +
-                          " are needed): 'not distinguishable' there is no evidence of equal quality.");
-  }
-  if (rec.failures)
-    v.caveats.push_back("It failed or left masked points unfilled in " + std::to_string(rec.failures) + " of " +
-                        std::to_string(rec.trials) + " trials.");
-  std::vector<std::string> undecided;
-  for (const auto& t : order) {
-    if (t.method == rec.method) continue;
-    bool open = false;
-    for (const auto* g : groups) {
-      const auto* m = find(*g, t.method);
-      open = open || (m && m->standing == Standing::NotDistinguishable && !g->underpowered());
-    }
-    if (open) undecided.push_back(t.method);
-  }
-  if (!undecided.empty())
-    v.caveats.push_back("Neither shown worse than the best nor within the margin in some condition (more replicates "
-                        "would decide): " + join_words(undecided) + ".");
+  const SeriesFacts facts{.groups = groups, .order = order, .summary = summary, .rank_col = rank_col,
+                          .direction = results.columns[rank_col].direction};
+  v.recommended = order.front().method;
+  v.top = order.front().top;
+  v.equally_good = equally_good(facts);
+  v.reasons = reasons(facts, v.equally_good);
+  v.caveats = caveats(facts);
   return v;
 }
 

@@ -67,33 +67,44 @@ struct GroupGrid {
   std::vector<std::vector<std::size_t>> slot_rows;  ///< per grid point: its rows in file order
 };
 
-GroupGrid lay_out_group(const RawData& raw, const RawGroup& group, std::size_t g, const Step& step) {
-  GroupGrid out;
-  GroupProfile& p = out.profile;
-  p.keys = raw.group_pairs(g);
-  p.label = group_label(p.keys);
-  p.rows = group.rows.size();
-
-  // Out of order: earlier than the previous row of the group, in file order.
+/// Rows earlier than the previous row of the group, in file order.
+std::size_t count_out_of_order(const RawData& raw, const RawGroup& group) {
+  std::size_t n = 0;
   for (std::size_t k = 1; k < group.rows.size(); ++k)
-    if (raw.times[group.rows[k]] < raw.times[group.rows[k - 1]]) ++p.out_of_order;
+    if (raw.times[group.rows[k]] < raw.times[group.rows[k - 1]]) ++n;
+  return n;
+}
 
-  // The grid's phase: the most common phase key among the rows.
+/// Where a group's grid lies: a row time on it (`through`) and, for monthly
+/// steps, the day of the month its points fall on.
+struct GridPhase {
+  std::int64_t through = 0;
+  int month_day = 0;
+};
+
+/// The grid's phase is the most common phase key among the rows.
+GridPhase choose_grid_phase(const RawData& raw, const RawGroup& group, const Step& step) {
   std::map<std::int64_t, std::size_t> keys;
   for (std::size_t r : group.rows) ++keys[grid_phase_key(raw.kind, step, raw.times[r])];
   std::int64_t key = 0;
   std::size_t best = 0;
   for (const auto& [k, n] : keys)
     if (n > best) key = k, best = n;
-  std::int64_t through = 0;
+  GridPhase out;
   for (std::size_t r : group.rows)
     if (grid_phase_key(raw.kind, step, raw.times[r]) == key) {
-      through = raw.times[r];
+      out.through = raw.times[r];
       break;
     }
-  const int month_day = step.unit == Step::Unit::Months ? int((key / kDay) % 32) : 0;
+  out.month_day = step.unit == Step::Unit::Months ? int((key / kDay) % 32) : 0;
+  return out;
+}
 
-  // Distinct times, on or off the grid.
+/// The group's distinct times on the grid, each with its offset (in steps)
+/// from `phase.through`; counts the duplicates (and those that differ) and
+/// the distinct times off the grid in `p`.
+std::map<std::int64_t, std::int64_t> on_grid_times(const RawData& raw, const RawGroup& group, const Step& step,
+                                                   const GridPhase& phase, GroupProfile& p) {
   std::map<std::int64_t, std::size_t> first_row;  // time -> its first row
   std::map<std::int64_t, std::int64_t> offset_of; // on-grid time -> its offset from `through`
   for (std::size_t r : group.rows) {
@@ -109,17 +120,29 @@ GroupGrid lay_out_group(const RawData& raw, const RawGroup& group, std::size_t g
         }
       continue;
     }
-    if (auto k = grid_offset(raw.kind, step, through, t, month_day))
+    if (auto k = grid_offset(raw.kind, step, phase.through, t, phase.month_day))
       offset_of.emplace(t, *k);
     else
       ++p.off_grid;
   }
+  return offset_of;
+}
+
+GroupGrid lay_out_group(const RawData& raw, const RawGroup& group, std::size_t g, const Step& step) {
+  GroupGrid out;
+  GroupProfile& p = out.profile;
+  p.keys = raw.group_pairs(g);
+  p.label = group_label(p.keys);
+  p.rows = group.rows.size();
+  p.out_of_order = count_out_of_order(raw, group);
+  const GridPhase phase = choose_grid_phase(raw, group, step);
+  const std::map<std::int64_t, std::int64_t> offset_of = on_grid_times(raw, group, step, phase, p);
   if (offset_of.empty()) return out;  // cannot happen: `through` is on the grid
   const std::int64_t lo = offset_of.begin()->second, hi = offset_of.rbegin()->second;
   const std::int64_t start = offset_of.begin()->first;
   AxisStyle style;
   style.utc_z = raw.utc_z;
-  style.month_day = month_day;
+  style.month_day = phase.month_day;
   std::int64_t points = -1;
   if (!__builtin_sub_overflow(hi, lo, &points) && points < INT64_MAX) ++points;
   check_grid_size(points, step, raw.source);
@@ -134,12 +157,10 @@ GroupGrid lay_out_group(const RawData& raw, const RawGroup& group, std::size_t g
   return out;
 }
 
-SeriesProfile profile_series(const RawData& raw, const GroupGrid& grid, std::size_t g, std::size_t v,
-                             const std::vector<std::string>& units, std::size_t period) {
-  SeriesProfile s;
-  s.variable = raw.value_columns[v];
-  s.group = g;
-  s.label = grid.profile.keys.empty() ? s.variable : s.variable + "[" + grid.profile.label + "]";
+/// Each grid point's state and value: a missing record without rows, else
+/// the first row whose cell is not empty (a missing value when none is).
+/// Notes the first cell that is not a number; such a series has no values.
+void read_slots(const RawData& raw, const GroupGrid& grid, std::size_t v, SeriesProfile& s) {
   const std::size_t n = grid.profile.grid.size();
   s.expected = n;
   s.states.assign(n, SlotState::MissingRecord);
@@ -173,8 +194,12 @@ SeriesProfile profile_series(const RawData& raw, const GroupGrid& grid, std::siz
       ++s.missing_values;
   }
   if (!s.numeric) std::fill(s.values.begin(), s.values.end(), std::nan(""));
+}
 
-  // Gaps: runs of points that are not present.
+/// Gaps are runs of points that are not present: counted by length, each
+/// made of missing records, missing values or both.
+void count_gaps(SeriesProfile& s) {
+  const std::size_t n = s.states.size();
   std::map<std::size_t, GapLengthCount> by_length;
   for (std::size_t i = 0; i < n;) {
     if (s.states[i] == SlotState::Present) {
@@ -194,24 +219,36 @@ SeriesProfile profile_series(const RawData& raw, const GroupGrid& grid, std::siz
     i = j;
   }
   for (const auto& [length, c] : by_length) s.gaps.push_back(c);
+}
 
-  for (const auto& unit : units) {
-    std::map<int, std::pair<std::size_t, std::size_t>> counts;
-    for (std::size_t i = 0; i < n; ++i) {
-      auto& c = counts[phase_of(grid.profile.grid, i, unit, period)];
-      ++c.first;
-      if (s.states[i] != SlotState::Present) ++c.second;
-    }
-    PhaseMissingness pm;
-    pm.unit = unit;
-    for (const auto& [phase, c] : counts) {
-      pm.phases.push_back(phase);
-      pm.expected.push_back(c.first);
-      pm.missing.push_back(c.second);
-    }
-    s.phases.push_back(std::move(pm));
+/// Expected and missing points per phase of `unit`, in phase order.
+PhaseMissingness missingness_by_phase(const SeriesProfile& s, const TimeAxis& axis, const std::string& unit,
+                                      std::size_t period) {
+  std::map<int, std::pair<std::size_t, std::size_t>> counts;
+  for (std::size_t i = 0; i < s.states.size(); ++i) {
+    auto& c = counts[phase_of(axis, i, unit, period)];
+    ++c.first;
+    if (s.states[i] != SlotState::Present) ++c.second;
   }
+  PhaseMissingness pm;
+  pm.unit = unit;
+  for (const auto& [phase, c] : counts) {
+    pm.phases.push_back(phase);
+    pm.expected.push_back(c.first);
+    pm.missing.push_back(c.second);
+  }
+  return pm;
+}
 
+SeriesProfile profile_series(const RawData& raw, const GroupGrid& grid, std::size_t g, std::size_t v,
+                             const std::vector<std::string>& units, std::size_t period) {
+  SeriesProfile s;
+  s.variable = raw.value_columns[v];
+  s.group = g;
+  s.label = grid.profile.keys.empty() ? s.variable : s.variable + "[" + grid.profile.label + "]";
+  read_slots(raw, grid, v, s);
+  count_gaps(s);
+  for (const auto& unit : units) s.phases.push_back(missingness_by_phase(s, grid.profile.grid, unit, period));
   if (s.numeric) {
     s.screen = screen_values(s.values);
   } else {

@@ -76,9 +76,24 @@ std::string group_option(const DataProfile& p) {
   return out;
 }
 
-}  // namespace
+/// The rows' problems added over the groups, for the closing notes.
+struct RowTotals {
+  std::size_t duplicates = 0, off_grid = 0, out_of_order = 0, missing_records = 0, rows = 0;
+};
 
-std::string profile_text(const DataProfile& p) {
+RowTotals row_totals(const DataProfile& p) {
+  RowTotals t;
+  for (const auto& g : p.groups) {
+    t.duplicates += g.duplicates;
+    t.off_grid += g.off_grid;
+    t.out_of_order += g.out_of_order;
+    t.missing_records += g.missing_records;
+    t.rows += g.rows;
+  }
+  return t;
+}
+
+std::string header_text(const DataProfile& p) {
   std::string out = "Profile of " + p.source + ": " + layout_words(p) + ", time column '" + p.time_column + "', " +
                     std::to_string(p.value_columns.size()) + " value column" + (p.value_columns.size() == 1 ? "" : "s") +
                     "\n";
@@ -87,63 +102,62 @@ std::string profile_text(const DataProfile& p) {
          (p.period >= 2 ? std::to_string(p.period) + (p.period_given ? " (given)" : " (from the step; --period sets it)")
                         : "none (--period sets one)");
   if (p.offset_minutes) out += "; times at UTC offset " + format_time(TimeKind::DateTime, 0, p.offset_minutes, p.utc_z).substr(16);
-  out += "\n\n";
+  return out + "\n\n";
+}
 
-  out += "Records per group (a missing record is a grid time with no row at all)\n";
+std::string records_table(const DataProfile& p) {
   std::vector<std::vector<std::string>> rows;
-  std::size_t duplicates = 0, off_grid = 0, out_of_order = 0, missing_records = 0, all_rows = 0;
-  for (const auto& g : p.groups) {
+  for (const auto& g : p.groups)
     rows.push_back({g.label, time_at(g, 0), time_at(g, g.grid.size() ? g.grid.size() - 1 : 0), std::to_string(g.rows),
                     std::to_string(g.grid.size()), std::to_string(g.present), std::to_string(g.missing_records),
                     std::to_string(g.duplicates) + (g.conflicting_duplicates ? " (" + std::to_string(g.conflicting_duplicates) + " differ)" : ""),
                     std::to_string(g.out_of_order), std::to_string(g.off_grid)});
-    duplicates += g.duplicates;
-    off_grid += g.off_grid;
-    out_of_order += g.out_of_order;
-    missing_records += g.missing_records;
-    all_rows += g.rows;
-  }
-  out += aligned_table({"group", "first", "last", "rows", "expected", "present", "missing records", "duplicates",
+  return "Records per group (a missing record is a grid time with no row at all)\n" +
+         aligned_table({"group", "first", "last", "rows", "expected", "present", "missing records", "duplicates",
                         "out of order", "off grid"},
                        rows, 3);
+}
 
-  out += "\nValues per series (a missing value is a row whose cell is empty)\n";
-  rows.clear();
+std::string values_table(const DataProfile& p) {
+  std::vector<std::vector<std::string>> rows;
   for (const auto& s : p.series)
     rows.push_back({s.label, std::to_string(s.expected), std::to_string(s.observed), std::to_string(s.missing_values),
                     std::to_string(s.missing_records), share(s.missing(), s.expected), std::to_string(s.gap_count),
                     std::to_string(s.longest_gap)});
-  out += aligned_table({"series", "expected", "present", "missing values", "missing records", "missing", "gaps",
+  return "\nValues per series (a missing value is a row whose cell is empty)\n" +
+         aligned_table({"series", "expected", "present", "missing values", "missing records", "missing", "gaps",
                         "longest gap"},
                        rows, 1);
+}
 
-  out += "\nGap lengths (a gap is a run of missing points; length×count, r = only missing records, v = only missing "
-         "values, m = both)\n";
-  rows.clear();
+std::string gaps_table(const DataProfile& p) {
+  std::vector<std::vector<std::string>> rows;
   for (const auto& s : p.series) rows.push_back({s.label, gap_line(s)});
-  out += aligned_table({"series", "gaps"}, rows, 2);
+  return "\nGap lengths (a gap is a run of missing points; length×count, r = only missing records, v = only missing "
+         "values, m = both)\n" +
+         aligned_table({"series", "gaps"}, rows, 2);
+}
 
+/// Empty when no series has phases.
+std::string phases_table(const DataProfile& p) {
   bool any_phase = false;
   for (const auto& s : p.series) any_phase = any_phase || !s.phases.empty();
-  if (any_phase) {
-    out += "\nMissingness by phase (share of expected points missing)\n";
-    rows.clear();
-    for (const auto& s : p.series) {
-      bool first = true;
-      for (const auto& pm : s.phases) {
-        const std::string line = phase_line(pm);
-        if (line.empty()) continue;
-        rows.push_back({first ? s.label : "", line});
-        first = false;
-      }
+  if (!any_phase) return "";
+  std::vector<std::vector<std::string>> rows;
+  for (const auto& s : p.series) {
+    bool first = true;
+    for (const auto& pm : s.phases) {
+      const std::string line = phase_line(pm);
+      if (line.empty()) continue;
+      rows.push_back({first ? s.label : "", line});
+      first = false;
     }
-    out += aligned_table({"series", "by phase"}, rows, 2);
   }
+  return "\nMissingness by phase (share of expected points missing)\n" + aligned_table({"series", "by phase"}, rows, 2);
+}
 
-  out += "\nValue-dependent missingness screen: the values just before and after each gap against the other values\n"
-         "(Mann-Whitney U, normal approximation). A screening heuristic: a small p hints that values go missing\n"
-         "around some levels more than others; a large p proves nothing, since the missing values are never seen.\n";
-  rows.clear();
+std::string screen_table(const DataProfile& p) {
+  std::vector<std::vector<std::string>> rows;
   for (const auto& s : p.series) {
     if (!s.screen.applicable) {
       rows.push_back({s.label, "", "", "", "", "", "n/a: " + s.screen.reason});
@@ -155,24 +169,104 @@ std::string profile_text(const DataProfile& p) {
                     std::to_string(s.screen.rest_count) + ", " + short_number(s.screen.rest_median),
                     short_number(t.z), short_number(t.p), "", verdict});
   }
-  out += aligned_table({"series", "next to gaps (n, median)", "others (n, median)", "z", "p", "", "at 1%"}, rows, 1);
+  return "\nValue-dependent missingness screen: the values just before and after each gap against the other values\n"
+         "(Mann-Whitney U, normal approximation). A screening heuristic: a small p hints that values go missing\n"
+         "around some levels more than others; a large p proves nothing, since the missing values are never seen.\n" +
+         aligned_table({"series", "next to gaps (n, median)", "others (n, median)", "z", "p", "", "at 1%"}, rows, 1);
+}
 
-  out += "\n";
-  if (2 * off_grid > all_rows)
-    out += "Note: most rows (" + share(off_grid, all_rows) + ") fall between the points of a " + p.step.iso() +
+/// What to do next: regularize events, choose what a missing record means,
+/// put duplicates and stray rows on a grid.
+std::string notes(const DataProfile& p) {
+  const RowTotals t = row_totals(p);
+  std::string out;
+  if (2 * t.off_grid > t.rows)
+    out += "Note: most rows (" + share(t.off_grid, t.rows) + ") fall between the points of a " + p.step.iso() +
            " grid: these look like events at\nirregular times rather than a regular log. Put them on a grid first, for "
            "example\n  gapmark regularize " + p.source + group_option(p) + " --step PT1H --agg COLUMN=sum --empty COLUMN=zero --out HOURLY.csv\n"
            "and profile the result.\n";
-  if (missing_records > 0)
-    out += "Note: " + std::to_string(missing_records) +
+  if (t.missing_records > 0)
+    out += "Note: " + std::to_string(t.missing_records) +
            " missing records. Whether an absent row means nothing happened (the truth is zero: counts, event totals,\n"
            "feed dispensed) or no observation (the truth is unknown: sensor readings) depends on the variable, not on\n"
            "the file. Choose per variable when you regularize: gapmark regularize ... --empty COLUMN=zero|missing.\n";
-  if (duplicates + off_grid + out_of_order > 0)
-    out += "Note: " + std::to_string(duplicates) + " duplicate, " + std::to_string(out_of_order) + " out-of-order and " +
-           std::to_string(off_grid) +
+  if (t.duplicates + t.off_grid + t.out_of_order > 0)
+    out += "Note: " + std::to_string(t.duplicates) + " duplicate, " + std::to_string(t.out_of_order) + " out-of-order and " +
+           std::to_string(t.off_grid) +
            " off-grid rows. Put the rows on a regular grid (aggregating duplicates) with gapmark regularize.\n";
   return out;
+}
+
+json group_json(const GroupProfile& g) {
+  json keys = json::object();
+  for (const auto& [c, v] : g.keys) keys[c] = v;
+  return {{"label", g.label},
+          {"keys", keys},
+          {"first", time_at(g, 0)},
+          {"last", time_at(g, g.grid.size() ? g.grid.size() - 1 : 0)},
+          {"rows", g.rows},
+          {"expected", g.grid.size()},
+          {"present", g.present},
+          {"missing_records", g.missing_records},
+          {"duplicates", g.duplicates},
+          {"conflicting_duplicates", g.conflicting_duplicates},
+          {"out_of_order", g.out_of_order},
+          {"off_grid", g.off_grid}};
+}
+
+json phases_json(const SeriesProfile& s) {
+  json phases = json::object();
+  for (const auto& pm : s.phases) {
+    json list = json::array();
+    for (std::size_t k = 0; k < pm.phases.size(); ++k)
+      list.push_back({{"phase", pm.phases[k]}, {"expected", pm.expected[k]}, {"missing", pm.missing[k]}});
+    phases[pm.unit] = list;
+  }
+  return phases;
+}
+
+json screen_json(const ValueScreen& v) {
+  json screen = {{"applicable", v.applicable},
+                 {"method", "Mann-Whitney U, normal approximation with tie and continuity corrections; a screening heuristic"},
+                 {"near_count", v.near_count},
+                 {"rest_count", v.rest_count}};
+  if (v.applicable) {
+    screen["near_median"] = v.near_median;
+    screen["rest_median"] = v.rest_median;
+    screen["u"] = v.test.u;
+    screen["z"] = v.test.z;
+    screen["p"] = v.test.p;
+  } else {
+    screen["reason"] = v.reason;
+  }
+  return screen;
+}
+
+json series_json(const SeriesProfile& s, const DataProfile& p) {
+  json gaps = json::array();
+  for (const auto& c : s.gaps)
+    gaps.push_back({{"length", c.length}, {"count", c.count}, {"records", c.records}, {"values", c.values}, {"mixed", c.mixed}});
+  return {{"label", s.label},
+          {"variable", s.variable},
+          {"group", p.groups[s.group].label},
+          {"numeric", s.numeric},
+          {"expected", s.expected},
+          {"present", s.observed},
+          {"missing_values", s.missing_values},
+          {"missing_records", s.missing_records},
+          {"missing_share", s.expected ? json(double(s.missing()) / double(s.expected)) : json()},
+          {"gap_count", s.gap_count},
+          {"longest_gap", s.longest_gap},
+          {"gap_lengths", gaps},
+          {"missing_by_phase", phases_json(s)},
+          {"value_screen", screen_json(s.screen)}};
+}
+
+}  // namespace
+
+std::string profile_text(const DataProfile& p) {
+  return header_text(p) + records_table(p) + values_table(p) + gaps_table(p) + phases_table(p) + screen_table(p) +
+         "\n" + notes(p);
 }
 
 std::string profile_json(const DataProfile& p) {
@@ -187,63 +281,10 @@ std::string profile_json(const DataProfile& p) {
   j["period_given"] = p.period_given;
   j["utc_offset"] = p.offset_minutes ? json(format_time(TimeKind::DateTime, 0, p.offset_minutes, p.utc_z).substr(16)) : json();
   json groups = json::array();
-  for (const auto& g : p.groups) {
-    json keys = json::object();
-    for (const auto& [c, v] : g.keys) keys[c] = v;
-    groups.push_back({{"label", g.label},
-                      {"keys", keys},
-                      {"first", time_at(g, 0)},
-                      {"last", time_at(g, g.grid.size() ? g.grid.size() - 1 : 0)},
-                      {"rows", g.rows},
-                      {"expected", g.grid.size()},
-                      {"present", g.present},
-                      {"missing_records", g.missing_records},
-                      {"duplicates", g.duplicates},
-                      {"conflicting_duplicates", g.conflicting_duplicates},
-                      {"out_of_order", g.out_of_order},
-                      {"off_grid", g.off_grid}});
-  }
+  for (const auto& g : p.groups) groups.push_back(group_json(g));
   j["groups"] = groups;
   json series = json::array();
-  for (const auto& s : p.series) {
-    json gaps = json::array();
-    for (const auto& c : s.gaps)
-      gaps.push_back({{"length", c.length}, {"count", c.count}, {"records", c.records}, {"values", c.values}, {"mixed", c.mixed}});
-    json phases = json::object();
-    for (const auto& pm : s.phases) {
-      json list = json::array();
-      for (std::size_t k = 0; k < pm.phases.size(); ++k)
-        list.push_back({{"phase", pm.phases[k]}, {"expected", pm.expected[k]}, {"missing", pm.missing[k]}});
-      phases[pm.unit] = list;
-    }
-    json screen = {{"applicable", s.screen.applicable},
-                   {"method", "Mann-Whitney U, normal approximation with tie and continuity corrections; a screening heuristic"},
-                   {"near_count", s.screen.near_count},
-                   {"rest_count", s.screen.rest_count}};
-    if (s.screen.applicable) {
-      screen["near_median"] = s.screen.near_median;
-      screen["rest_median"] = s.screen.rest_median;
-      screen["u"] = s.screen.test.u;
-      screen["z"] = s.screen.test.z;
-      screen["p"] = s.screen.test.p;
-    } else {
-      screen["reason"] = s.screen.reason;
-    }
-    series.push_back({{"label", s.label},
-                      {"variable", s.variable},
-                      {"group", p.groups[s.group].label},
-                      {"numeric", s.numeric},
-                      {"expected", s.expected},
-                      {"present", s.observed},
-                      {"missing_values", s.missing_values},
-                      {"missing_records", s.missing_records},
-                      {"missing_share", s.expected ? json(double(s.missing()) / double(s.expected)) : json()},
-                      {"gap_count", s.gap_count},
-                      {"longest_gap", s.longest_gap},
-                      {"gap_lengths", gaps},
-                      {"missing_by_phase", phases},
-                      {"value_screen", screen}});
-  }
+  for (const auto& s : p.series) series.push_back(series_json(s, p));
   j["series"] = series;
   return j.dump(2) + "\n";
 }

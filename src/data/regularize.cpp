@@ -127,8 +127,10 @@ void set_empty_policies(RegularizeOptions& options, const ColumnChoices& choices
   }
 }
 
-Panel regularize(const RawData& raw, const RegularizeOptions& options) {
-  check_binning_step(raw.kind, options.step, "--step");
+namespace {
+
+/// Every column named in the options is a value column.
+void check_named_columns(const RawData& raw, const RegularizeOptions& options) {
   for (const auto& [name, a] : options.aggregation)
     if (std::find(raw.value_columns.begin(), raw.value_columns.end(), name) == raw.value_columns.end())
       throw InputError(raw.source + ":1", "an aggregation is given for '" + name +
@@ -137,20 +139,27 @@ Panel regularize(const RawData& raw, const RegularizeOptions& options) {
     if (std::find(raw.value_columns.begin(), raw.value_columns.end(), name) == raw.value_columns.end())
       throw InputError(raw.source + ":1", "an empty-interval policy is given for '" + name +
                                               "', which is not a value column (value columns: " + join(raw.value_columns) + ")");
+}
 
+/// The panel's columns, and each variable's aggregation and empty-interval policy.
+Panel panel_columns(const RawData& raw, const RegularizeOptions& options) {
   Panel panel;
   panel.time_column = raw.time_column;
   panel.group_columns = raw.group_columns;
   panel.value_columns = raw.value_columns;
-  const std::size_t nv = raw.value_columns.size();
   for (const auto& name : raw.value_columns) {
     auto a = options.aggregation.find(name);
     panel.aggregation.push_back(a == options.aggregation.end() ? options.default_aggregation : a->second);
     auto e = options.empty.find(name);
     panel.empty.push_back(e == options.empty.end() ? options.default_empty : e->second);
   }
+  return panel;
+}
 
-  // Parse every value once; text is an error unless the column is counted.
+/// Every value parsed once, numbers[variable][row] (NaN: empty); text is an
+/// error unless the column is counted.
+std::vector<std::vector<double>> parse_values(const RawData& raw, const Panel& panel) {
+  const std::size_t nv = raw.value_columns.size();
   std::vector<std::vector<double>> numbers(nv, std::vector<double>(raw.row_count(), std::nan("")));
   for (std::size_t v = 0; v < nv; ++v)
     for (std::size_t r = 0; r < raw.row_count(); ++r) {
@@ -168,41 +177,64 @@ Panel regularize(const RawData& raw, const RegularizeOptions& options) {
                                            raw.value_columns[v] + "=count, or leave the column out");
       }
     }
+  return numbers;
+}
 
+/// The rows and their parsed values, and the bins they fall in.
+struct BinnedRows {
+  const RawData& raw;
+  const std::vector<std::vector<double>>& numbers;
+  const Binning& bins;
+  std::int64_t all_lo, all_hi;  ///< the span of all rows
+  bool shared_span;
+};
+
+/// One group's grid, aggregated bin by bin, added to the panel.
+void add_group(Panel& panel, const BinnedRows& in, const RawGroup& group) {
+  const RawData& raw = in.raw;
+  const std::size_t nv = raw.value_columns.size();
+  std::int64_t lo = in.all_lo, hi = in.all_hi;
+  if (!in.shared_span) {
+    lo = std::numeric_limits<std::int64_t>::max();
+    hi = std::numeric_limits<std::int64_t>::min();
+    for (std::size_t r : group.rows) lo = std::min(lo, raw.times[r]), hi = std::max(hi, raw.times[r]);
+  }
+  const TimeAxis axis = in.bins.axis(lo, hi, raw.offset_minutes, raw.utc_z);
+  std::vector<std::vector<Accumulator>> acc(nv, std::vector<Accumulator>(axis.size()));
+  for (std::size_t r : group.rows) {
+    const std::size_t b = in.bins.index(axis, raw.times[r]);
+    for (std::size_t v = 0; v < nv; ++v) {
+      acc[v][b].add_row();
+      if (!std::isnan(in.numbers[v][r])) acc[v][b].add_value(in.numbers[v][r], std::string(trim(raw.cells[v][r])), raw.times[r]);
+    }
+  }
+  std::vector<std::vector<std::string>> cells(nv, std::vector<std::string>(axis.size()));
+  std::vector<RegularizeCounts> counts(nv);
+  for (std::size_t v = 0; v < nv; ++v) {
+    counts[v].bins = axis.size();
+    for (std::size_t b = 0; b < axis.size(); ++b)
+      cells[v][b] = result(acc[v][b], panel.aggregation[v], panel.empty[v], counts[v]);
+  }
+  panel.group_keys.push_back(group.keys);
+  panel.axes.push_back(axis);
+  panel.cells.push_back(std::move(cells));
+  panel.counts.push_back(std::move(counts));
+}
+
+}  // namespace
+
+Panel regularize(const RawData& raw, const RegularizeOptions& options) {
+  check_binning_step(raw.kind, options.step, "--step");
+  check_named_columns(raw, options);
+  Panel panel = panel_columns(raw, options);
+  const std::vector<std::vector<double>> numbers = parse_values(raw, panel);
   const TimeKind kind = output_kind(raw, options.step);
   std::int64_t all_lo = std::numeric_limits<std::int64_t>::max(), all_hi = std::numeric_limits<std::int64_t>::min();
   for (std::int64_t t : raw.times) all_lo = std::min(all_lo, t), all_hi = std::max(all_hi, t);
   const Binning bins(kind, options.step, all_lo);
-
-  for (std::size_t g = 0; g < raw.groups.size(); ++g) {
-    const RawGroup& group = raw.groups[g];
-    std::int64_t lo = all_lo, hi = all_hi;
-    if (!options.shared_span) {
-      lo = std::numeric_limits<std::int64_t>::max();
-      hi = std::numeric_limits<std::int64_t>::min();
-      for (std::size_t r : group.rows) lo = std::min(lo, raw.times[r]), hi = std::max(hi, raw.times[r]);
-    }
-    const TimeAxis axis = bins.axis(lo, hi, raw.offset_minutes, raw.utc_z);
-    std::vector<std::vector<Accumulator>> acc(nv, std::vector<Accumulator>(axis.size()));
-    for (std::size_t r : group.rows) {
-      const std::size_t b = bins.index(axis, raw.times[r]);
-      for (std::size_t v = 0; v < nv; ++v) {
-        acc[v][b].add_row();
-        if (!std::isnan(numbers[v][r])) acc[v][b].add_value(numbers[v][r], std::string(trim(raw.cells[v][r])), raw.times[r]);
-      }
-    }
-    std::vector<std::vector<std::string>> cells(nv, std::vector<std::string>(axis.size()));
-    std::vector<RegularizeCounts> counts(nv);
-    for (std::size_t v = 0; v < nv; ++v) {
-      counts[v].bins = axis.size();
-      for (std::size_t b = 0; b < axis.size(); ++b)
-        cells[v][b] = result(acc[v][b], panel.aggregation[v], panel.empty[v], counts[v]);
-    }
-    panel.group_keys.push_back(group.keys);
-    panel.axes.push_back(axis);
-    panel.cells.push_back(std::move(cells));
-    panel.counts.push_back(std::move(counts));
-  }
+  const BinnedRows in{.raw = raw, .numbers = numbers, .bins = bins, .all_lo = all_lo, .all_hi = all_hi,
+                      .shared_span = options.shared_span};
+  for (const RawGroup& group : raw.groups) add_group(panel, in, group);
   return panel;
 }
 

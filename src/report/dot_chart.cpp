@@ -3,6 +3,8 @@
 // a single missing rate, so a rate chart would be a cramped strip.
 #include <algorithm>
 #include <cmath>
+#include <optional>
+#include <utility>
 
 #include "html_charts.hpp"
 
@@ -43,34 +45,30 @@ double axis_limit(const std::vector<DotRow>& rows) {
   return reach > 0 ? least + reach : HUGE_VAL;
 }
 
-}  // namespace
-
-std::string dot_chart(const DotChart& chart) {
-  const double limit = axis_limit(chart.rows);
+/// The span of the means and intervals the axis shows (those within
+/// `limit`), widened where it is a single value; empty when there is none.
+std::optional<std::pair<double, double>> shown_span(const std::vector<DotRow>& rows, double limit) {
   double lo = HUGE_VAL, hi = -HUGE_VAL;
-  for (const auto& r : chart.rows) {
+  for (const auto& r : rows) {
     if (!(r.mean <= limit)) continue;
     for (double v : {r.mean, r.low, r.high})
       if (std::isfinite(v) && v <= limit) lo = std::min(lo, v), hi = std::max(hi, v);
   }
-  if (chart.rows.empty() || lo > hi) return "";
+  if (rows.empty() || lo > hi) return std::nullopt;
   if (hi == lo) {
     const double pad = lo == 0 ? 1 : std::abs(lo) * 0.1;
     lo -= pad;
     hi += pad;
   }
-  const double pad = (hi - lo) * 0.05;
-  const auto ticks = svg::nice_ticks(lo - pad, hi + pad, 5);
+  return std::pair{lo, hi};
+}
 
-  Plot plot;
-  plot.left = name_margin(chart.rows);
-  plot.top = 10;
-  plot.height = plot.top + kRowHeight * static_cast<double>(chart.rows.size()) + plot.bottom;
-  const double x_lo = std::min(lo - pad, ticks.front()), x_hi = std::max(hi + pad, ticks.back());
-  plot.x = {x_lo, x_hi, plot.x0(), plot.x1()};
+double row_y(const Plot& plot, std::size_t i) { return plot.y1() + kRowHeight * (static_cast<double>(i) + 0.5); }
 
-  std::string out = open_svg(plot, chart.title);
-  out += "<g class=\"axes\" font-size=\"12\" fill=\"" + std::string(svg::kInk) + "\">";
+/// Vertical grid lines with their labels, the axis and its title, and the
+/// method names down the left.
+std::string dot_axes(const DotChart& chart, const Plot& plot, const std::vector<double>& ticks) {
+  std::string out = "<g class=\"axes\" font-size=\"12\" fill=\"" + std::string(svg::kInk) + "\">";
   for (double t : ticks) {
     const double x = plot.x(t);
     out += "<line x1=\"" + coord(x) + "\" x2=\"" + coord(x) + "\" y1=\"" + coord(plot.y1()) + "\" y2=\"" +
@@ -82,34 +80,47 @@ std::string dot_chart(const DotChart& chart) {
          "\" y2=\"" + coord(plot.y0()) + "\" stroke=\"" + svg::kAxis + "\"/>";
   out += "<text x=\"" + coord((plot.x0() + plot.x1()) / 2) + "\" y=\"" + coord(plot.height - 6) +
          "\" text-anchor=\"middle\" class=\"axis-title\">" + escape(chart.x_label) + "</text>";
-  for (std::size_t i = 0; i < chart.rows.size(); ++i) {
-    const double y = plot.y1() + kRowHeight * (static_cast<double>(i) + 0.5);
-    out += "<text x=\"" + coord(plot.x0() - 8) + "\" y=\"" + coord(y + 4) + "\" text-anchor=\"end\">" +
+  for (std::size_t i = 0; i < chart.rows.size(); ++i)
+    out += "<text x=\"" + coord(plot.x0() - 8) + "\" y=\"" + coord(row_y(plot, i) + 4) + "\" text-anchor=\"end\">" +
            escape(shown_name(chart.rows[i].name)) + "</text>";
-  }
-  out += "</g>";
-  for (std::size_t i = 0; i < chart.rows.size(); ++i) {
-    const auto& r = chart.rows[i];
-    const double y = plot.y1() + kRowHeight * (static_cast<double>(i) + 0.5);
-    out += "<g class=\"series\"><title>" + escape(r.name) + "</title>";
-    if (std::isfinite(r.mean) && r.mean > limit) {
-      // Off the axis: a marker at its end, an arrow and the value.
-      out += svg::marker(r.style, plot.x1() - 4, y, 4) + "<text x=\"" + coord(plot.x1() - 12) + "\" y=\"" +
-             coord(y + 4) + "\" font-size=\"11\" text-anchor=\"end\" fill=\"" + svg::kInk + "\">→ " +
-             escape(svg::tick_label(r.mean)) + "</text></g>";
-      continue;
-    }
-    if (std::isfinite(r.low) && std::isfinite(r.high))
-      out += "<line x1=\"" + coord(plot.x(r.low)) + "\" x2=\"" + coord(plot.x(std::min(r.high, plot.x.d1))) +
-             "\" y1=\"" + coord(y) + "\" y2=\"" + coord(y) + "\" stroke=\"" + r.style.colour +
-             "\" stroke-width=\"1.8\"/>";
-    if (std::isfinite(r.mean))
-      out += svg::marker(r.style, plot.x(r.mean), y, 4);
-    else
-      out += "<text x=\"" + coord(plot.x0() + 4) + "\" y=\"" + coord(y + 4) + "\" font-size=\"11\" fill=\"" +
-             svg::kAxis + "\">no value</text>";
-    out += "</g>";
-  }
+  return out + "</g>";
+}
+
+/// One method's row: its interval and mean, its value written out at the
+/// axis' end when beyond `limit`, or "no value".
+std::string dot_row(const DotRow& r, double y, const Plot& plot, double limit) {
+  std::string out = "<g class=\"series\"><title>" + escape(r.name) + "</title>";
+  if (std::isfinite(r.mean) && r.mean > limit)  // off the axis: a marker at its end, an arrow and the value
+    return out + svg::marker(r.style, plot.x1() - 4, y, 4) + "<text x=\"" + coord(plot.x1() - 12) + "\" y=\"" +
+           coord(y + 4) + "\" font-size=\"11\" text-anchor=\"end\" fill=\"" + svg::kInk + "\">→ " +
+           escape(svg::tick_label(r.mean)) + "</text></g>";
+  if (std::isfinite(r.low) && std::isfinite(r.high))
+    out += "<line x1=\"" + coord(plot.x(r.low)) + "\" x2=\"" + coord(plot.x(std::min(r.high, plot.x.d1))) +
+           "\" y1=\"" + coord(y) + "\" y2=\"" + coord(y) + "\" stroke=\"" + r.style.colour + "\" stroke-width=\"1.8\"/>";
+  if (std::isfinite(r.mean))
+    out += svg::marker(r.style, plot.x(r.mean), y, 4);
+  else
+    out += "<text x=\"" + coord(plot.x0() + 4) + "\" y=\"" + coord(y + 4) + "\" font-size=\"11\" fill=\"" + svg::kAxis +
+           "\">no value</text>";
+  return out + "</g>";
+}
+
+}  // namespace
+
+std::string dot_chart(const DotChart& chart) {
+  const double limit = axis_limit(chart.rows);
+  const auto span = shown_span(chart.rows, limit);
+  if (!span) return "";
+  const auto [lo, hi] = *span;
+  const double pad = (hi - lo) * 0.05;
+  const auto ticks = svg::nice_ticks(lo - pad, hi + pad, 5);
+  Plot plot;
+  plot.left = name_margin(chart.rows);
+  plot.top = 10;
+  plot.height = plot.top + kRowHeight * static_cast<double>(chart.rows.size()) + plot.bottom;
+  plot.x = {std::min(lo - pad, ticks.front()), std::max(hi + pad, ticks.back()), plot.x0(), plot.x1()};
+  std::string out = open_svg(plot, chart.title) + dot_axes(chart, plot, ticks);
+  for (std::size_t i = 0; i < chart.rows.size(); ++i) out += dot_row(chart.rows[i], row_y(plot, i), plot, limit);
   return out + "</svg>";
 }
 
