@@ -88,101 +88,162 @@ double seasonal_strength(std::span<const double> x, std::size_t period) {
   return std::clamp(1.0 - var_r / var_d, 0.0, 1.0);
 }
 
-SearchResult search_order(std::span<const double> y, std::size_t period, const SearchBounds& bounds) {
-  SearchResult result;
+namespace {
+
+struct Differences {
+  int d = 0, seasonal_d = 0;
+};
+
+/// One seasonal difference when the season is strong, then ordinary
+/// differences while the KPSS test rejects level stationarity at 5% (and
+/// enough observed values remain); records the strength and the statistics.
+Differences choose_differences(std::span<const double> y, std::size_t period, const SearchBounds& bounds,
+                               SearchResult& result) {
+  Differences out;
   const bool seasonal = period >= 2;
   std::vector<double> work(y.begin(), y.end());
-
-  int big_d = 0;
   result.seasonal_strength = seasonal ? seasonal_strength(y, period) : kNaN;
   if (seasonal && bounds.max_seasonal_d >= 1 && result.seasonal_strength > kStrengthThreshold) {
-    big_d = 1;
+    out.seasonal_d = 1;
     work = difference(work, period);
   }
-  int d = 0;
   while (true) {
     const double stat = kpss_statistic(work);
     result.kpss.push_back(stat);
-    if (!(stat > kKpssCritical5) || d >= bounds.max_d) break;
+    if (!(stat > kKpssCritical5) || out.d >= bounds.max_d) break;
     std::vector<double> next = difference(work, 1);
     if (observed_count(next) < 8) break;
     work = std::move(next);
-    ++d;
+    ++out.d;
+  }
+  return out;
+}
+
+/// A candidate's terms: AR, MA, seasonal AR, seasonal MA, constant.
+using Terms = std::tuple<int, int, int, int, bool>;
+
+/// The stepwise search over models with the chosen differences: the
+/// models tried with their AICc, and the best so far.
+class StepwiseSearch {
+public:
+  StepwiseSearch(std::span<const double> y, std::size_t period, const SearchBounds& bounds, Differences diff,
+                 SearchResult& result)
+      : y_(y), period_(period), bounds_(bounds), diff_(diff), result_(result) {}
+
+  /// The starting models: (2,2) with seasonal (1,1), white noise, (1,0)
+  /// with seasonal (1,0), (0,1) with seasonal (0,1); with a constant when
+  /// the differences allow one, and white noise without it.
+  void try_starting_models() {
+    const bool with_constant = diff_.d + diff_.seasonal_d <= 1;
+    const int s1 = seasonal() ? 1 : 0;
+    try_model({std::min(2, bounds_.max_p), std::min(2, bounds_.max_q), std::min(s1, bounds_.max_seasonal_p),
+               std::min(s1, bounds_.max_seasonal_q), with_constant},
+              nullptr);
+    try_model({0, 0, 0, 0, with_constant}, nullptr);
+    try_model({std::min(1, bounds_.max_p), 0, std::min(s1, bounds_.max_seasonal_p), 0, with_constant}, nullptr);
+    try_model({0, std::min(1, bounds_.max_q), 0, std::min(s1, bounds_.max_seasonal_q), with_constant}, nullptr);
+    if (with_constant) try_model({0, 0, 0, 0, false}, nullptr);
   }
 
-  using Key = std::tuple<int, int, int, int, bool>;
-  std::map<Key, double> tried;
-  bool have_best = false;
-  Fit best;
-  // parent: the current best, whose end point a neighbour starts from
-  auto try_model = [&](int p, int q, int sp, int sq, bool constant, const Fit* parent) -> bool {
-    if (p < 0 || q < 0 || sp < 0 || sq < 0 || p > bounds.max_p || q > bounds.max_q) return false;
-    if (!seasonal && (sp > 0 || sq > 0)) return false;
-    if (sp > bounds.max_seasonal_p || sq > bounds.max_seasonal_q) return false;
-    if (p + q + sp + sq > bounds.max_terms) return false;
-    if (constant && d + big_d > 1) return false;
-    const Key key{p, q, sp, sq, constant};
-    if (tried.count(key) || result.models >= bounds.max_models) return false;
+  /// Moves to the first neighbour that lowers the AICc, until none does.
+  void climb() {
+    bool improved = have_best_;
+    while (improved) {
+      improved = false;
+      const Fit current = best_;
+      const Order c = current.order;
+      const int p = c.p, q = c.q, sp = c.seasonal_p, sq = c.seasonal_q;
+      const bool k = c.constant;
+      const std::vector<Terms> moves{
+          {p, q, sp - 1, sq, k}, {p, q, sp + 1, sq, k}, {p, q, sp, sq - 1, k}, {p, q, sp, sq + 1, k},
+          {p, q, sp - 1, sq - 1, k}, {p, q, sp + 1, sq + 1, k},
+          {p - 1, q, sp, sq, k}, {p + 1, q, sp, sq, k}, {p, q - 1, sp, sq, k}, {p, q + 1, sp, sq, k},
+          {p - 1, q - 1, sp, sq, k}, {p + 1, q + 1, sp, sq, k},
+          {p, q, sp, sq, !k}};
+      for (const Terms& move : moves)
+        if (try_model(move, &current)) {
+          improved = true;
+          break;
+        }
+    }
+  }
+
+  const Fit* best() const { return have_best_ ? &best_ : nullptr; }
+
+private:
+  bool seasonal() const { return period_ >= 2; }
+
+  /// Within the bounds, not tried yet, and the model budget not spent.
+  bool allowed(const Terms& t) const {
+    const auto& [p, q, sp, sq, constant] = t;
+    if (p < 0 || q < 0 || sp < 0 || sq < 0 || p > bounds_.max_p || q > bounds_.max_q) return false;
+    if (!seasonal() && (sp > 0 || sq > 0)) return false;
+    if (sp > bounds_.max_seasonal_p || sq > bounds_.max_seasonal_q) return false;
+    if (p + q + sp + sq > bounds_.max_terms) return false;
+    if (constant && diff_.d + diff_.seasonal_d > 1) return false;
+    return !tried_.count(t) && result_.models < bounds_.max_models;
+  }
+
+  Order order_of(const Terms& t) const {
     Order o;
-    o.p = p;
-    o.d = d;
-    o.q = q;
-    o.seasonal_p = sp;
-    o.seasonal_d = big_d;
-    o.seasonal_q = sq;
-    o.period = seasonal ? period : 0;
-    o.constant = constant;
+    o.p = std::get<0>(t);
+    o.d = diff_.d;
+    o.q = std::get<1>(t);
+    o.seasonal_p = std::get<2>(t);
+    o.seasonal_d = diff_.seasonal_d;
+    o.seasonal_q = std::get<3>(t);
+    o.period = seasonal() ? period_ : 0;
+    o.constant = std::get<4>(t);
+    return o;
+  }
+
+  /// Fits the model (from `parent`'s end point when given: the current
+  /// best, whose neighbour it is); true when it becomes the best.
+  bool try_model(const Terms& t, const Fit* parent) {
+    if (!allowed(t)) return false;
+    const Order o = order_of(t);
     double aicc = std::numeric_limits<double>::infinity();
-    ++result.models;
+    ++result_.models;
     try {
-      Fit f = parent ? fit_from(o, y, warm_start(*parent, o), kNeighbourStep, kScreeningTolerance)
-                     : fit(o, y, kScreeningTolerance);
-      result.evaluations += f.evaluations;
+      Fit f = parent ? fit_from(o, y_, warm_start(*parent, o), kNeighbourStep, kScreeningTolerance)
+                     : fit(o, y_, kScreeningTolerance);
+      result_.evaluations += f.evaluations;
       // a fit on the edge of stationarity or invertibility is not a candidate
       if (!f.at_bound && std::isfinite(f.aicc)) aicc = f.aicc;
-      tried[key] = aicc;
-      if (aicc < std::numeric_limits<double>::infinity() && (!have_best || aicc < best.aicc)) {
-        best = std::move(f);
-        have_best = true;
+      tried_[t] = aicc;
+      if (aicc < std::numeric_limits<double>::infinity() && (!have_best_ || aicc < best_.aicc)) {
+        best_ = std::move(f);
+        have_best_ = true;
         return true;
       }
     } catch (const MethodFailure&) {
-      tried[key] = aicc;
+      tried_[t] = aicc;
     }
     return false;
-  };
-
-  const bool with_constant = d + big_d <= 1;
-  const int s1 = seasonal ? 1 : 0;
-  try_model(std::min(2, bounds.max_p), std::min(2, bounds.max_q), std::min(s1, bounds.max_seasonal_p),
-            std::min(s1, bounds.max_seasonal_q), with_constant, nullptr);
-  try_model(0, 0, 0, 0, with_constant, nullptr);
-  try_model(std::min(1, bounds.max_p), 0, std::min(s1, bounds.max_seasonal_p), 0, with_constant, nullptr);
-  try_model(0, std::min(1, bounds.max_q), 0, std::min(s1, bounds.max_seasonal_q), with_constant, nullptr);
-  if (with_constant) try_model(0, 0, 0, 0, false, nullptr);
-
-  bool improved = have_best;
-  while (improved) {
-    improved = false;
-    const Fit current = best;
-    const Order c = current.order;
-    const int p = c.p, q = c.q, sp = c.seasonal_p, sq = c.seasonal_q;
-    const bool k = c.constant;
-    const std::vector<std::tuple<int, int, int, int, bool>> moves{
-        {p, q, sp - 1, sq, k}, {p, q, sp + 1, sq, k}, {p, q, sp, sq - 1, k}, {p, q, sp, sq + 1, k},
-        {p, q, sp - 1, sq - 1, k}, {p, q, sp + 1, sq + 1, k},
-        {p - 1, q, sp, sq, k}, {p + 1, q, sp, sq, k}, {p, q - 1, sp, sq, k}, {p, q + 1, sp, sq, k},
-        {p - 1, q - 1, sp, sq, k}, {p + 1, q + 1, sp, sq, k},
-        {p, q, sp, sq, !k}};
-    for (const auto& [a, b, e, f, g] : moves)
-      if (try_model(a, b, e, f, g, &current)) {
-        improved = true;
-        break;
-      }
   }
-  if (!have_best) throw MethodFailure("no ARIMA model in the search could be fitted");
+
+  std::span<const double> y_;
+  std::size_t period_;
+  const SearchBounds& bounds_;
+  Differences diff_;
+  SearchResult& result_;
+  std::map<Terms, double> tried_;
+  bool have_best_ = false;
+  Fit best_;
+};
+
+}  // namespace
+
+SearchResult search_order(std::span<const double> y, std::size_t period, const SearchBounds& bounds) {
+  SearchResult result;
+  const Differences diff = choose_differences(y, period, bounds, result);
+  StepwiseSearch search(y, period, bounds, diff, result);
+  search.try_starting_models();
+  search.climb();
+  const Fit* best = search.best();
+  if (best == nullptr) throw MethodFailure("no ARIMA model in the search could be fitted");
   // the chosen order to full precision, from where its screening fit ended
-  result.best = fit_from(best.order, y, best.parameters, kRefitStep);
+  result.best = fit_from(best->order, y, best->parameters, kRefitStep);
   result.evaluations += result.best.evaluations;
   return result;
 }

@@ -105,6 +105,43 @@ std::uint64_t data_seed(const std::vector<std::span<const double>>& columns) {
   return stable_hash(bytes);
 }
 
+/// The target first, then each sibling of the same length with observed values.
+std::vector<std::span<const double>> usable_columns(const FillRequest& request) {
+  const std::size_t n = request.values.size();
+  std::vector<std::span<const double>> columns{request.values};
+  for (const auto& s : request.siblings)
+    if (s.size() == n && count_observed(s) > 0) columns.push_back(s);
+  if (columns.size() < 2)
+    throw MethodFailure("needs at least one sibling series of the same length with observed values",
+                        UnmetNeed::Siblings);
+  return columns;
+}
+
+/// The series side by side as columns, each centred and scaled by its observed values.
+struct ScaledMatrix {
+  Eigen::MatrixXd x;
+  std::vector<ColumnScale> scales;
+};
+
+ScaledMatrix scaled_matrix(const std::vector<std::span<const double>>& columns) {
+  const std::size_t n = columns[0].size();
+  ScaledMatrix out{.x = Eigen::MatrixXd(static_cast<Eigen::Index>(n), static_cast<Eigen::Index>(columns.size())),
+                   .scales = {}};
+  for (Eigen::Index j = 0; j < out.x.cols(); ++j) {
+    out.scales.push_back(observed_scale(columns[j]));
+    for (std::size_t i = 0; i < n; ++i)
+      out.x(static_cast<Eigen::Index>(i), j) = (columns[j][i] - out.scales[j].centre) / out.scales[j].scale;
+  }
+  return out;
+}
+
+/// Where the final completion starts, and whether a chosen lambda lies at
+/// an end of its grid.
+struct LambdaStart {
+  Eigen::MatrixXd start;
+  bool at_grid_end = false;
+};
+
 class LowRank final : public FillMethod {
 public:
   // `base` carries the rank cap and the stopping rule; its lambda is set per fill.
@@ -112,52 +149,16 @@ public:
 
   FillResult fill(const FillRequest& request) const override {
     check_needs(kNeeds, request);
-    const std::size_t n = request.values.size();
-    std::vector<std::span<const double>> columns{request.values};
-    for (const auto& s : request.siblings)
-      if (s.size() == n && count_observed(s) > 0) columns.push_back(s);
-    if (columns.size() < 2)
-      throw MethodFailure("needs at least one sibling series of the same length with observed values",
-                          UnmetNeed::Siblings);
-    const auto k = static_cast<Eigen::Index>(columns.size());
+    const std::vector<std::span<const double>> columns = usable_columns(request);
     const std::size_t rank = base_.max_rank;
     if (rank > 0 && lambda_fraction_ == 0.0 && rank >= columns.size())
       throw MethodFailure("rank " + std::to_string(rank) + " leaves nothing to complete with " +
                           std::to_string(columns.size()) + " series; choose a rank below the number of series");
-
-    Eigen::MatrixXd x(static_cast<Eigen::Index>(n), k);
-    std::vector<ColumnScale> scales;
-    for (Eigen::Index j = 0; j < k; ++j) {
-      scales.push_back(observed_scale(columns[j]));
-      for (std::size_t i = 0; i < n; ++i)
-        x(static_cast<Eigen::Index>(i), j) = (columns[j][i] - scales[j].centre) / scales[j].scale;
-    }
-
+    const ScaledMatrix m = scaled_matrix(columns);
     SoftImputeOptions options = base_;
-    Eigen::MatrixXd start = Eigen::MatrixXd::Zero(x.rows(), x.cols());
-    bool chose_at_grid_end = false;
-    if (rank == 0 && lambda_fraction_ == 0.0) {
-      const std::size_t observed = static_cast<std::size_t>((!x.array().isNaN()).count());
-      if (observed < kMinObservedForSelection)
-        throw MethodFailure("only " + std::to_string(observed) + " observed cells, too few to choose lambda by " +
-                            "hold-out (needs " + std::to_string(kMinObservedForSelection) +
-                            "); give rank or lambda");
-      const LambdaSelection sel = select_lambda(x, kGridSize, kSmallestRatio, kHoldoutFraction,
-                                                data_seed(columns), options, kPatience);
-      options.lambda = sel.lambdas.at(sel.best);
-      start = sel.best_z;
-      chose_at_grid_end = sel.best == 0 || sel.best + 1 == kGridSize;
-    } else if (lambda_fraction_ == 0.0) {
-      // Rank only: the rank-capped soft-thresholded path down to lambda 0,
-      // each fit warm-starting the next.
-      std::vector<double> path = lambda_grid(lambda_max(x), kGridSize, kSmallestRatio);
-      start = soft_impute_path(x, path, options).z;
-      options.lambda = 0.0;
-    } else {
-      options.lambda = lambda_fraction_ * lambda_max(x);
-    }
-    const double top = lambda_max(x);
-    const SoftImputeFit fit = soft_impute(x, options, start);
+    const LambdaStart chosen = set_lambda(m.x, columns, options);
+    const double top = lambda_max(m.x);
+    const SoftImputeFit fit = soft_impute(m.x, options, chosen.start);
     if (!fit.z.allFinite()) throw MethodFailure("the completion diverged (non-finite values)");
 
     FillResult result;
@@ -169,15 +170,44 @@ public:
     result.fit.iterations = fit.iterations;
     result.fit.converged = fit.converged;
     // lambda chosen at an end of its grid: the best lies at or beyond the searched range
-    result.fit.at_bound = chose_at_grid_end;
+    result.fit.at_bound = chosen.at_grid_end;
     result.values.assign(request.values.begin(), request.values.end());
-    for (std::size_t i = 0; i < n; ++i)
+    for (std::size_t i = 0; i < result.values.size(); ++i)
       if (std::isnan(result.values[i]))
-        result.values[i] = fit.z(static_cast<Eigen::Index>(i), 0) * scales[0].scale + scales[0].centre;
+        result.values[i] = fit.z(static_cast<Eigen::Index>(i), 0) * m.scales[0].scale + m.scales[0].centre;
     return result;
   }
 
 private:
+  /// Sets options.lambda: chosen by hold-out (neither rank nor lambda
+  /// given), 0 after the rank-capped path (rank only), or the given
+  /// fraction of lambda_max.
+  LambdaStart set_lambda(const Eigen::MatrixXd& x, const std::vector<std::span<const double>>& columns,
+                         SoftImputeOptions& options) const {
+    LambdaStart out{.start = Eigen::MatrixXd::Zero(x.rows(), x.cols()), .at_grid_end = false};
+    if (base_.max_rank == 0 && lambda_fraction_ == 0.0) {
+      const std::size_t observed = static_cast<std::size_t>((!x.array().isNaN()).count());
+      if (observed < kMinObservedForSelection)
+        throw MethodFailure("only " + std::to_string(observed) + " observed cells, too few to choose lambda by " +
+                            "hold-out (needs " + std::to_string(kMinObservedForSelection) +
+                            "); give rank or lambda");
+      const LambdaSelection sel = select_lambda(x, kGridSize, kSmallestRatio, kHoldoutFraction,
+                                                data_seed(columns), options, kPatience);
+      options.lambda = sel.lambdas.at(sel.best);
+      out.start = sel.best_z;
+      out.at_grid_end = sel.best == 0 || sel.best + 1 == kGridSize;
+    } else if (lambda_fraction_ == 0.0) {
+      // Rank only: the rank-capped soft-thresholded path down to lambda 0,
+      // each fit warm-starting the next.
+      std::vector<double> path = lambda_grid(lambda_max(x), kGridSize, kSmallestRatio);
+      out.start = soft_impute_path(x, path, options).z;
+      options.lambda = 0.0;
+    } else {
+      options.lambda = lambda_fraction_ * lambda_max(x);
+    }
+    return out;
+  }
+
   SoftImputeOptions base_;
   double lambda_fraction_;
 };

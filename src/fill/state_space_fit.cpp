@@ -37,6 +37,7 @@
 // steps (the evaluation count reports each ratio: 15-18).
 #include <algorithm>
 #include <array>
+#include <optional>
 #include <cmath>
 #include <cstdint>
 #include <exception>
@@ -212,44 +213,34 @@ double hermite_maximum(const level::RatioPoint& left, const level::RatioPoint& r
   return left.x + t * w;
 }
 
-RatioFit fit_one_ratio(std::span<const double> z, const FitOptions& options) {
-  RatioFit fit;
-  auto keep = [&fit](const level::RatioPoint& pt) { fit.keep(pt); };
-  // The grid, likelihood and slope at every point, in one pass.
-  std::array<level::RatioPoint, kRatioGrid> grid{};
+/// The grid's points, likelihood and slope at every one in one pass, each
+/// kept if best; returns the index of the best finite one (kRatioGrid when none).
+std::size_t search_grid(std::span<const double> z, std::array<level::RatioPoint, kRatioGrid>& grid, RatioFit& fit) {
   for (std::size_t i = 0; i < kRatioGrid; ++i)
     grid[i].x = -kBound + 2 * kBound * static_cast<double>(i) / static_cast<double>(kRatioGrid - 1);
   level::concentrated_with_slope(z, grid);
   fit.evaluations += kRatioGrid;
   std::size_t best = kRatioGrid;
   for (std::size_t i = 0; i < kRatioGrid; ++i) {
-    keep(grid[i]);
+    fit.keep(grid[i]);
     if (std::isfinite(grid[i].log_likelihood) &&
         (best == kRatioGrid || grid[i].log_likelihood > grid[best].log_likelihood))
       best = i;
   }
-  if (best == kRatioGrid) return fit;
-  const double slope = grid[best].slope;
-  // A best grid point on a bound is kept when the likelihood falls going inside.
-  if ((best == 0 && !(slope > 0)) || (best == kRatioGrid - 1 && !(slope < 0)) || slope == 0) return fit;
-  // The maximum lies on the side the slope points to: between the best point
-  // and its neighbour there, if the slope changes sign in between.
-  const std::size_t lo = slope > 0 ? best : best - 1, hi = lo + 1;
-  if (!(grid[lo].slope > 0 && grid[hi].slope < 0)) {
-    brent_within(z, options, grid[best == 0 ? 0 : best - 1].x,
-                 grid[best + 1 == kRatioGrid ? best : best + 1].x, fit);
-    return fit;
-  }
-  // Narrow the bracket fivefold with four inner points in one pass (four
-  // ratios cost little more than one), keeping the first sign change.
-  level::RatioPoint left = grid[lo], right = grid[hi];
+  return best;
+}
+
+/// Narrows the bracket [left, right] (slope > 0, slope < 0) fivefold with
+/// four inner points in one pass (four ratios cost little more than one),
+/// keeping the first sign change.
+void narrow_bracket(std::span<const double> z, level::RatioPoint& left, level::RatioPoint& right, RatioFit& fit) {
   std::array<level::RatioPoint, kInnerPoints> inner{};
   for (std::size_t i = 0; i < kInnerPoints; ++i)
     inner[i].x = left.x + (right.x - left.x) * static_cast<double>(i + 1) / static_cast<double>(kInnerPoints + 1);
   level::concentrated_with_slope(z, inner);
   fit.evaluations += kInnerPoints;
   for (const auto& pt : inner) {
-    keep(pt);
+    fit.keep(pt);
     if (!std::isfinite(pt.slope)) continue;
     if (pt.slope > 0) {
       left = pt;
@@ -258,16 +249,21 @@ RatioFit fit_one_ratio(std::span<const double> z, const FitOptions& options) {
       break;
     }
   }
-  // Newton's method on the slope with its curvature (Boost.Math), from the
-  // maximum of the cubic through the bracket's ends, within the bracket. Boost stops on a relative step,
-  // so x is shifted to x + 3 x bound (46 to 92) and the digits chosen so that
-  // it stops once a step is below the x tolerance.
+}
+
+/// Newton's method on the slope with its curvature (Boost.Math), from the
+/// maximum of the cubic through the bracket's ends, within the bracket.
+/// Boost stops on a relative step, so x is shifted to x + 3 x bound (46 to
+/// 92) and the digits chosen so that it stops once a step is below the x
+/// tolerance.
+void newton_within(std::span<const double> z, const FitOptions& options, const level::RatioPoint& left,
+                   const level::RatioPoint& right, RatioFit& fit) {
   const double shift = 3 * kBound;
   const int digits = static_cast<int>(std::ceil(std::log2(4 * kBound / (kNewtonStop * options.x_tolerance)))) + 1;
   auto slope_and_curvature = [&](double u) {
     const level::RatioPoint pt = level::concentrated_with_curvature(z, u - shift);
     ++fit.evaluations;
-    keep(pt);
+    fit.keep(pt);
     if (!std::isfinite(pt.slope) || !std::isfinite(pt.curvature)) return std::pair<double, double>(0.0, 1.0);
     return std::pair<double, double>(pt.slope, pt.curvature);
   };
@@ -281,6 +277,27 @@ RatioFit fit_one_ratio(std::span<const double> z, const FitOptions& options) {
     // No zero found where the slopes said (round-off on a flat likelihood):
     // the best point seen stands.
   }
+}
+
+RatioFit fit_one_ratio(std::span<const double> z, const FitOptions& options) {
+  RatioFit fit;
+  std::array<level::RatioPoint, kRatioGrid> grid{};
+  const std::size_t best = search_grid(z, grid, fit);
+  if (best == kRatioGrid) return fit;
+  const double slope = grid[best].slope;
+  // A best grid point on a bound is kept when the likelihood falls going inside.
+  if ((best == 0 && !(slope > 0)) || (best == kRatioGrid - 1 && !(slope < 0)) || slope == 0) return fit;
+  // The maximum lies on the side the slope points to: between the best point
+  // and its neighbour there, if the slope changes sign in between.
+  const std::size_t lo = slope > 0 ? best : best - 1, hi = lo + 1;
+  if (!(grid[lo].slope > 0 && grid[hi].slope < 0)) {
+    brent_within(z, options, grid[best == 0 ? 0 : best - 1].x,
+                 grid[best + 1 == kRatioGrid ? best : best + 1].x, fit);
+    return fit;
+  }
+  level::RatioPoint left = grid[lo], right = grid[hi];
+  narrow_bracket(z, left, right, fit);
+  newton_within(z, options, left, right, fit);
   return fit;
 }
 
@@ -332,6 +349,73 @@ Standardised standardise(std::span<const double> y) {
   return out;
 }
 
+namespace {
+
+/// Data the model follows exactly (a straight line for the trend model, a
+/// line plus a fixed season for the seasonal one) leave no innovation at
+/// all, whatever the variances; every estimate is then zero. A negligible
+/// common variance keeps the filter defined and the smoother exact. (The
+/// local level model follows only constant data exactly, which were turned
+/// away before: no probe for it.)
+std::optional<FitResult> exact_fit(const StructuralModel& model, std::span<const double> z, double scale) {
+  if (model.variance_count() == 2) return std::nullopt;
+  const std::vector<double> equal(model.variance_count(), 1.0);
+  const LikelihoodParts probe = filter_likelihood(model, z, equal);
+  if (!(probe.finite && probe.prior_resolved && probe.effective() > 0 && probe.sum_v2_over_f < kExactFit))
+    return std::nullopt;
+  FitResult result;
+  result.variances.assign(model.variance_count(), kExactFitVariance * scale * scale);
+  result.log_likelihood = std::numeric_limits<double>::infinity();
+  result.evaluations = 1;
+  result.at_bound = true;
+  return result;
+}
+
+/// A model with two variances: one ratio, searched by fit_one_ratio. The
+/// pass at the best ratio gave the common scale too: no pass more.
+FitResult ratio_fit(const StructuralModel& model, std::span<const double> z, double scale, const FitOptions& options) {
+  const RatioFit ratio = fit_one_ratio(z, options);
+  if (ratio.relative.empty())
+    throw MethodFailure("the " + model.name() + " model's likelihood is not finite at any variance ratio");
+  const double sigma2 = ratio.best.scale;
+  if (!(sigma2 > 0) || !std::isfinite(sigma2))
+    throw MethodFailure("the " + model.name() + " model's fitted scale is not positive");
+  FitResult result;
+  result.variances = {ratio.relative[0] * sigma2 * scale * scale, ratio.relative[1] * sigma2 * scale * scale};
+  result.log_likelihood = ratio.log_likelihood - static_cast<double>(ratio.best.effective) * std::log(scale);
+  result.evaluations = ratio.evaluations;
+  result.starts = 1;
+  result.converged = ratio.converged;
+  result.at_bound = ratio_at_bound(ratio.relative);
+  return result;
+}
+
+/// Three or more variances: a coarse search from each starting share, then
+/// a fine one from the best of them.
+FitResult searched_fit(const StructuralModel& model, std::span<const double> z, double scale,
+                       const FitOptions& options) {
+  Search search(model, z);
+  std::size_t starts = 0;
+  for (const auto& share : fit_starts(model)) {
+    search.run(share, kScreenFactor * options.x_tolerance, kScreenFactor * options.f_tolerance, 1.0,
+               std::min(kScreenEvaluations, options.max_evaluations));
+    ++starts;
+  }
+  if (search.best_relative.empty())
+    throw MethodFailure("the " + model.name() + " model's likelihood is not finite at any starting point");
+  const std::vector<double> best_start = search.best_relative;
+  const bool converged = search.run(best_start, options.x_tolerance, options.f_tolerance, 0.1, options.max_evaluations);
+  ++starts;
+  FitResult result = scaled_fit(model, z, search.best_relative, scale);
+  result.evaluations += search.evaluations;
+  result.starts = starts;
+  result.converged = converged;
+  result.at_bound = ratio_at_bound(search.best_relative);
+  return result;
+}
+
+}  // namespace
+
 FitResult fit_variances(const StructuralModel& model, std::span<const double> y, const FitOptions& options) {
   const Standardised data = standardise(y);
   if (data.observed <= model.state_dim())
@@ -339,64 +423,9 @@ FitResult fit_variances(const StructuralModel& model, std::span<const double> y,
                         " observed, more than " + std::to_string(model.state_dim()) + " needed");
   if (!(data.scale > 0) || !std::isfinite(data.scale))
     throw MethodFailure("the observed values are constant (or not finite): no variance to estimate");
-  const double scale = data.scale;
-  const std::vector<double>& z = data.z;
-
-  FitResult result;
-  // Data the model follows exactly (a straight line for the trend model, a
-  // line plus a fixed season for the seasonal one) leave no innovation at
-  // all, whatever the variances; every estimate is then zero. A negligible
-  // common variance keeps the filter defined and the smoother exact.
-  // (The local level model follows only constant data exactly, which were
-  // turned away above: no probe for it.)
-  const std::vector<double> equal(model.variance_count(), 1.0);
-  const LikelihoodParts probe =
-      model.variance_count() == 2 ? LikelihoodParts{} : filter_likelihood(model, z, equal);
-  if (model.variance_count() != 2 && probe.finite && probe.prior_resolved && probe.effective() > 0 && probe.sum_v2_over_f < kExactFit) {
-    result.variances.assign(model.variance_count(), kExactFitVariance * scale * scale);
-    result.log_likelihood = std::numeric_limits<double>::infinity();
-    result.evaluations = 1;
-    result.at_bound = true;
-    return result;
-  }
-
-  if (model.variance_count() == 2) {
-    const RatioFit ratio = fit_one_ratio(z, options);
-    if (ratio.relative.empty())
-      throw MethodFailure("the " + model.name() + " model's likelihood is not finite at any variance ratio");
-    // The pass at the best ratio gave the common scale too: no pass more.
-    const double sigma2 = ratio.best.scale;
-    if (!(sigma2 > 0) || !std::isfinite(sigma2))
-      throw MethodFailure("the " + model.name() + " model's fitted scale is not positive");
-    result.variances = {ratio.relative[0] * sigma2 * scale * scale, ratio.relative[1] * sigma2 * scale * scale};
-    result.log_likelihood =
-        ratio.log_likelihood - static_cast<double>(ratio.best.effective) * std::log(scale);
-    result.evaluations = ratio.evaluations;
-    result.starts = 1;
-    result.converged = ratio.converged;
-    result.at_bound = ratio_at_bound(ratio.relative);
-    return result;
-  }
-
-  Search search(model, z);
-  for (const auto& share : fit_starts(model)) {
-    search.run(share, kScreenFactor * options.x_tolerance, kScreenFactor * options.f_tolerance, 1.0,
-               std::min(kScreenEvaluations, options.max_evaluations));
-    ++result.starts;
-  }
-  if (search.best_relative.empty())
-    throw MethodFailure("the " + model.name() + " model's likelihood is not finite at any starting point");
-  const std::vector<double> best_start = search.best_relative;
-  const bool converged = search.run(best_start, options.x_tolerance, options.f_tolerance, 0.1, options.max_evaluations);
-  ++result.starts;
-
-  const std::size_t starts = result.starts;
-  result = scaled_fit(model, z, search.best_relative, scale);
-  result.evaluations += search.evaluations;
-  result.starts = starts;
-  result.converged = converged;
-  result.at_bound = ratio_at_bound(search.best_relative);
-  return result;
+  if (auto exact = exact_fit(model, data.z, data.scale)) return *exact;
+  if (model.variance_count() == 2) return ratio_fit(model, data.z, data.scale, options);
+  return searched_fit(model, data.z, data.scale, options);
 }
 
 }  // namespace gapmark::state_space
