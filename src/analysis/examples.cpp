@@ -169,9 +169,9 @@ std::string attach_examples(ResultSet& results, const Summary& summary, const Ex
   } catch (const InputError& e) {
     return std::string("the data cannot be read again: ") + e.what();
   }
-  const nlohmann::json recorded = results.context.value("inputs", nlohmann::json::array());
+  const std::vector<InputFile>& recorded = results.context.inputs;
   for (std::size_t d = 0; d < data.input_sha256.size(); ++d)
-    if (d >= recorded.size() || recorded[d].value("sha256", "") != data.input_sha256[d])
+    if (d >= recorded.size() || recorded[d].sha256 != data.input_sha256[d])
       return "the data file " + spec.data[d].label + " changed since the run (SHA-256 differs)";
   results.examples = build_examples(spec, data, summary, options);
   return {};

@@ -13,10 +13,6 @@ namespace {
 /// The document; with `with_trials` false its "trials" member is an empty
 /// array (write_results_json streams them in its place).
 nlohmann::json results_document(const ResultSet& results, const Summary& summary, bool with_trials) {
-  nlohmann::json columns = nlohmann::json::array();
-  for (const auto& c : results.columns)
-    columns.push_back({{"name", c.name}, {"unit", c.unit}, {"direction", to_string(c.direction)},
-                       {"summary", c.summary}});
   nlohmann::json trials = nlohmann::json::array();
   if (with_trials)
     for (const auto& t : results.trials) trials.push_back(trial_to_json(t, results.columns));
@@ -25,17 +21,17 @@ nlohmann::json results_document(const ResultSet& results, const Summary& summary
     warnings.push_back({{"code", w.code}, {"where", w.where}, {"message", w.message}, {"hint", w.hint}});
   nlohmann::json out = {{"format", "gapmark-results"},
           {"schema_version", kResultsSchemaVersion},
-          {"context", results.context},
+          {"context", context_to_json(results.context)},
           {"rank_by", results.rank_by},
           {"alpha", results.alpha},
           {"equivalence", results.equivalence},
-          {"series", results.series},
-          {"columns", columns},
+          {"series", series_to_json(results.series)},
+          {"columns", columns_to_json(results.columns)},
           {"trials", trials},
           {"summary", summary_to_json(summary, results)},
           {"verdict", verdict_to_json(summary.verdict)},
           {"warnings", warnings},
-          {"timing", results.timing}};
+          {"timing", timing_to_json(results.timing)}};
   if (!results.examples.is_null()) out["examples"] = results.examples;
   return out;
 }

@@ -250,11 +250,8 @@ SeriesVerdict decide_series(const std::string& series, const std::vector<const C
 RunVerdict decide_verdict(const Summary& summary, const ResultSet& results) {
   RunVerdict verdict;
   std::vector<std::string> series;
-  if (results.series.is_array())
-    for (const auto& s : results.series) {
-      const std::string label = s.value("label", std::string());
-      if (std::find(series.begin(), series.end(), label) == series.end()) series.push_back(label);
-    }
+  for (const auto& s : results.series)
+    if (std::find(series.begin(), series.end(), s.label) == series.end()) series.push_back(s.label);
   for (const auto& g : summary.groups)
     if (std::find(series.begin(), series.end(), g.series) == series.end()) series.push_back(g.series);
   for (const auto& e : summary.excluded)

@@ -70,7 +70,8 @@ std::string distinct(const ResultSet& r, std::string TrialRecord::*field) {
 /// Why two files share no cell: what differs between them.
 std::string no_shared_cell(const ResultSet& b, const ResultSet& c, const std::string& baseline_source) {
   std::string out = "no cell in common with " + baseline_source + ", nothing to compare";
-  const auto hash_b = b.context.value("spec_sha256", std::string()), hash_c = c.context.value("spec_sha256", std::string());
+  const std::string& hash_b = b.context.spec_sha256;
+  const std::string& hash_c = c.context.spec_sha256;
   if (hash_b != hash_c)
     out += "; spec SHA-256 " + (hash_b.empty() ? std::string("(none)") : hash_b.substr(0, 12)) + " vs " +
            (hash_c.empty() ? std::string("(none)") : hash_c.substr(0, 12));
@@ -106,16 +107,15 @@ void note_context_differences(const ResultSet& baseline, const ResultSet& curren
   if (baseline.alpha != current.alpha)
     out.notes.push_back("alpha differs (baseline " + format_double(baseline.alpha) + ", current " +
                         format_double(current.alpha) + "); the current one is used");
-  const auto seed_b = baseline.context.value("seed", nlohmann::json()), seed_c = current.context.value("seed", nlohmann::json());
+  const std::uint64_t seed_b = baseline.context.seed, seed_c = current.context.seed;
   out.same_seed = seed_b == seed_c;
   if (!out.same_seed)
-    out.notes.push_back("the seeds differ (baseline " + seed_b.dump() + ", current " + seed_c.dump() +
+    out.notes.push_back("the seeds differ (baseline " + std::to_string(seed_b) + ", current " + std::to_string(seed_c) +
                         "): replicates do not share masks, so pairs are independent draws (the test stays valid, "
                         "with less power) and too few pairs decide nothing");
-  if (baseline.context.value("spec_sha256", std::string()) != current.context.value("spec_sha256", std::string()))
+  if (baseline.context.spec_sha256 != current.context.spec_sha256)
     out.notes.push_back("the spec files differ (SHA-256); cells are still matched by name");
-  const auto inputs_b = baseline.context.value("inputs", nlohmann::json()), inputs_c = current.context.value("inputs", nlohmann::json());
-  if (inputs_b != inputs_c) out.notes.push_back("the input data files differ (names or SHA-256)");
+  if (baseline.context.inputs != current.context.inputs) out.notes.push_back("the input data files differ (names or SHA-256)");
 }
 
 /// Metric columns matched by name: (baseline column, current column) of

@@ -75,10 +75,6 @@ std::filesystem::path checkpoint_path(const std::filesystem::path& dir_or_file) 
 
 json checkpoint_header(const ExperimentSpec& spec, const LoadedData& data, const Shard& shard) {
   const ResultSet frame = results_frame(spec, data);
-  json columns = json::array();
-  for (const auto& c : frame.columns)
-    columns.push_back({{"name", c.name}, {"unit", c.unit}, {"direction", to_string(c.direction)},
-                       {"summary", c.summary}});
   json schemes = json::array();
   for (const auto& plan : spec.schemes) schemes.push_back({{"label", plan.scheme.label}, {"rates", plan.rates}});
   json methods = json::array();
@@ -91,12 +87,36 @@ json checkpoint_header(const ExperimentSpec& spec, const LoadedData& data, const
           {"tasks", build_tasks(spec, data).size()},
           {"grid", {{"schemes", schemes}, {"replicates", spec.replicates}, {"methods", methods}}},
           {"frame",
-           {{"context", frame.context},
-            {"series", frame.series},
-            {"columns", columns},
+           {{"context", context_to_json(frame.context)},
+            {"series", series_to_json(frame.series)},
+            {"columns", columns_to_json(frame.columns)},
             {"rank_by", frame.rank_by},
             {"alpha", frame.alpha},
             {"equivalence", frame.equivalence}}}};
+}
+
+namespace {
+
+StoredObject header_frame(const json& header, const std::string& where) {
+  return StoredObject(header, where).object("frame");
+}
+
+}  // namespace
+
+RunContext header_context(const json& header, const std::string& where) {
+  return context_from_json(header_frame(header, where).object("context"));
+}
+
+ResultSet stored_frame(const json& header, const std::string& where) {
+  const StoredObject frame = header_frame(header, where);
+  ResultSet results;
+  results.context = context_from_json(frame.object("context"));
+  results.series = series_from_json(frame, "series");
+  results.columns = columns_from_json(frame, "columns");
+  results.rank_by = frame.text("rank_by");
+  results.alpha = stored_alpha(frame.at("alpha"), frame.where("alpha"));
+  if (frame.has("equivalence")) results.equivalence = frame.number("equivalence");  // absent before the margin existed
+  return results;
 }
 
 std::string task_line(std::size_t task, const std::vector<TrialRecord>& trials,
@@ -167,7 +187,8 @@ void CheckpointWriter::sync() {
 CheckpointGrid::CheckpointGrid(const json& header, const std::string& where) {
   try {
     const auto& grid = header.at("grid");
-    for (const auto& s : header.at("frame").at("series")) series_.push_back(s.at("label").get<std::string>());
+    for (const auto& s : series_from_json(StoredObject(header, where).object("frame"), "series"))
+      series_.push_back(s.label);
     for (const auto& k : grid.at("schemes")) {
       schemes_.push_back(k.at("label").get<std::string>());
       rates_.push_back(k.at("rates").get<std::vector<double>>());

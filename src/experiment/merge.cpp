@@ -23,14 +23,13 @@ namespace fs = std::filesystem;
 std::string short_hash(const std::string& sha) { return sha.substr(0, 12); }
 
 /// Why two checkpoint headers of the same spec are not parts of one run.
-std::string header_difference(const json& a, const json& b) {
-  const auto& ca = a.at("frame").at("context");
-  const auto& cb = b.at("frame").at("context");
-  if (ca.value("inputs", json()) != cb.value("inputs", json()))
-    return "the data files differ (their SHA-256 do not match)";
-  if (ca.value("version", "") != cb.value("version", "") || ca.value("commit", "") != cb.value("commit", ""))
-    return "they were run by different gapmark builds (" + ca.value("version", "?") + " " + ca.value("commit", "?") +
-           " and " + cb.value("version", "?") + " " + cb.value("commit", "?") + ")";
+std::string header_difference(const CheckpointScan& a, const CheckpointScan& b) {
+  const RunContext ca = header_context(a.header, a.path.string() + ":1");
+  const RunContext cb = header_context(b.header, b.path.string() + ":1");
+  if (ca.inputs != cb.inputs) return "the data files differ (their SHA-256 do not match)";
+  if (ca.version != cb.version || ca.commit != cb.commit)
+    return "they were run by different gapmark builds (" + ca.version + " " + ca.commit + " and " + cb.version + " " +
+           cb.commit + ")";
   return "their headers differ";
 }
 
@@ -46,32 +45,23 @@ std::string finish_hint(const Shard& shard, const std::string& dir) {
          "--resume " + dir;
 }
 
-std::vector<MetricColumn> columns_from(const json& header, const std::string& where) {
-  std::vector<MetricColumn> out;
-  try {
-    for (const auto& c : header.at("frame").at("columns"))
-      out.push_back({c.at("name").get<std::string>(), c.at("unit").get<std::string>(),
-                     direction_from_string(c.at("direction").get<std::string>()), c.at("summary").get<std::string>()});
-  } catch (const json::exception& e) {
-    throw InputError(where, std::string("header: malformed columns: ") + e.what());
-  }
-  return out;
-}
-
-}  // namespace
-
-ResultSet merge_checkpoints(const std::vector<fs::path>& inputs, const MergeOptions& options) {
-  if (inputs.empty()) throw InputError("merge", "no run or shard folders given");
-  std::vector<std::string> names;
+/// The checkpoint headers of the folders (or files) `names`, in that order.
+std::vector<CheckpointScan> read_headers(const std::vector<fs::path>& inputs) {
   std::vector<CheckpointScan> heads;
   for (const auto& input : inputs) {
-    names.push_back(input.string());
     const fs::path path = checkpoint_path(input);
     std::error_code ec;
     if (!fs::exists(path, ec))
       throw InputError(input.string(), "no checkpoint (trials.jsonl) here: not the folder of a gapmark run or shard");
     heads.push_back(read_checkpoint_header(path));
   }
+  return heads;
+}
+
+/// Checks that every checkpoint is a part of the first one's run (and of
+/// the spec the user named, when given).
+void check_same_run(const std::vector<CheckpointScan>& heads, const std::vector<std::string>& names,
+                    const MergeOptions& options) {
   const CheckpointScan& first = heads.front();
   if (options.spec && options.spec->sha256 != first.spec_sha256)
     throw InputError(options.spec->source, "is not the spec of " + names[0] + " (spec SHA-256 " +
@@ -88,10 +78,13 @@ ResultSet merge_checkpoints(const std::vector<fs::path>& inputs, const MergeOpti
                                      ", but " + names[0] + " is shard " + first.shard.text() +
                                      ": shards of different splits overlap");
     if (run_identity(h.header) != identity)
-      throw InputError(names[i], "not a part of the same run as " + names[0] + ": " +
-                                     header_difference(h.header, first.header));
+      throw InputError(names[i], "not a part of the same run as " + names[0] + ": " + header_difference(h, first));
   }
-  const std::size_t n = first.shard.count;
+}
+
+/// Checks that each shard of the split is given exactly once.
+void check_every_shard_once(const std::vector<CheckpointScan>& heads, const std::vector<std::string>& names) {
+  const std::size_t n = heads.front().shard.count;
   std::vector<std::size_t> owner(n, heads.size());
   for (std::size_t i = 0; i < heads.size(); ++i) {
     const std::size_t k = heads[i].shard.index - 1;
@@ -103,8 +96,11 @@ ResultSet merge_checkpoints(const std::vector<fs::path>& inputs, const MergeOpti
   for (std::size_t k = 0; k < n; ++k)
     if (owner[k] == heads.size()) missing += (missing.empty() ? "" : ", ") + Shard{k + 1, n}.text();
   if (!missing.empty()) throw InputError("merge", "missing shard " + missing + ": give the folder of every shard");
+}
 
-  const std::size_t total = first.grid_tasks;
+/// Every checkpoint's stored tasks in their slots; each checkpoint must be finished.
+TaskSlots read_stored_tasks(const std::vector<CheckpointScan>& heads, const std::vector<std::string>& names) {
+  const std::size_t total = heads.front().grid_tasks;
   TaskSlots slots(total);
   for (std::size_t i = 0; i < heads.size(); ++i) {
     const CheckpointScan scan = read_checkpoint(heads[i].path, [&](StoredTask&& t) {
@@ -117,31 +113,32 @@ ResultSet merge_checkpoints(const std::vector<fs::path>& inputs, const MergeOpti
                                      " is unfinished: " + std::to_string(scan.done.size()) + " of " +
                                      std::to_string(expected) + " tasks done; " + finish_hint(scan.shard, names[i]));
   }
+  return slots;
+}
 
-  ResultSet results;
-  try {
-    const json& frame = first.header.at("frame");
-    results.context = frame.at("context");
-    results.series = frame.at("series");
-    results.columns = columns_from(first.header, names[0]);
-    results.rank_by = frame.at("rank_by").get<std::string>();
-    results.alpha = stored_alpha(frame.at("alpha"), checkpoint_path(inputs[0]).string() + ":1: /frame");
-    results.equivalence = frame.value("equivalence", kDefaultEquivalence);  // absent before the margin existed
-  } catch (const json::exception& e) {
-    throw InputError(checkpoint_path(inputs[0]).string() + ":1", std::string("malformed checkpoint header: ") + e.what());
-  }
-  const json per_method = gather_task_slots(slots, results);
-  results.timing = {{"fill_seconds_by_method", per_method}, {"checkpoints", heads.size()}};
+}  // namespace
+
+ResultSet merge_checkpoints(const std::vector<fs::path>& inputs, const MergeOptions& options) {
+  if (inputs.empty()) throw InputError("merge", "no run or shard folders given");
+  std::vector<std::string> names;
+  for (const auto& input : inputs) names.push_back(input.string());
+  const std::vector<CheckpointScan> heads = read_headers(inputs);
+  check_same_run(heads, names, options);
+  check_every_shard_once(heads, names);
+  TaskSlots slots = read_stored_tasks(heads, names);
+  ResultSet results = stored_frame(heads.front().header, heads.front().path.string() + ":1");
+  results.timing.fill_seconds_by_method = gather_task_slots(slots, results);
+  results.timing.checkpoints = heads.size();
   return results;
 }
 
 std::string write_shard_marker(const fs::path& dir, const json& header, std::size_t tasks) {
-  const json& context = header.at("frame").at("context");
+  const RunContext context = header_context(header, "checkpoint header");
   const json marker = {{"format", "gapmark-shard"},
                        {"shard", Shard{header.at("shard").at("index").get<std::size_t>(),
                                        header.at("shard").at("count").get<std::size_t>()}
                                      .text()},
-                       {"spec_name", context.value("spec_name", "")},
+                       {"spec_name", context.spec_name},
                        {"spec_sha256", header.at("spec_sha256")},
                        {"tasks", tasks},
                        {"grid_tasks", header.at("tasks")},

@@ -41,6 +41,27 @@ void add_warning(std::vector<Warning>& warnings, Warning warning) {
   warnings.push_back(std::move(warning));
 }
 
+nlohmann::json columns_to_json(const std::vector<MetricColumn>& columns) {
+  nlohmann::json out = nlohmann::json::array();
+  for (const auto& c : columns)
+    out.push_back({{"name", c.name}, {"unit", c.unit}, {"direction", to_string(c.direction)}, {"summary", c.summary}});
+  return out;
+}
+
+std::vector<MetricColumn> columns_from_json(const StoredObject& stored, const std::string& key) {
+  std::vector<MetricColumn> out;
+  for (const auto& c : stored.objects(key)) {
+    Direction direction = Direction::Lower;
+    try {
+      direction = direction_from_string(c.text("direction"));
+    } catch (const InputError& e) {
+      c.fail("direction", e.what());
+    }
+    out.push_back({c.text("name"), c.text("unit"), direction, c.text("summary")});
+  }
+  return out;
+}
+
 nlohmann::json trial_to_json(const TrialRecord& t, const std::vector<MetricColumn>& columns) {
   nlohmann::json metrics = nlohmann::json::object();
   for (std::size_t i = 0; i < columns.size(); ++i) {

@@ -10,6 +10,7 @@ namespace gapmark {
 ResultSet results_from_json(const nlohmann::json& j, const std::string& source) {
   ResultSet r;
   try {
+    const StoredObject stored(j, source);
     if (j.value("format", "") != "gapmark-results")
       throw InputError(source + ": /format", "not a gapmark results file");
     const int version = j.at("schema_version").get<int>();
@@ -17,24 +18,21 @@ ResultSet results_from_json(const nlohmann::json& j, const std::string& source) 
       throw InputError(source + ": /schema_version",
                        "schema version " + std::to_string(version) + " is not supported (this tool reads " +
                            std::to_string(kResultsSchemaVersion) + ")");
-    r.context = j.at("context");
-    r.series = j.at("series");
+    r.context = context_from_json(stored.object("context"));
+    r.series = series_from_json(stored, "series");
     r.rank_by = j.at("rank_by").get<std::string>();
     r.alpha = stored_alpha(j.at("alpha"), source + ": /alpha");
     r.equivalence = j.value("equivalence", kDefaultEquivalence);
     if (!(r.equivalence > 0 && r.equivalence < 1))
       throw InputError(source + ": /equivalence", "expected a number in (0, 1)");
-    for (const auto& c : j.at("columns"))
-      r.columns.push_back({c.at("name").get<std::string>(), c.at("unit").get<std::string>(),
-                           direction_from_string(c.at("direction").get<std::string>()),
-                           c.at("summary").get<std::string>()});
+    r.columns = columns_from_json(stored, "columns");
     const auto& trials = j.at("trials");
     for (std::size_t i = 0; i < trials.size(); ++i)
       r.trials.push_back(trial_from_json(trials[i], r.columns, source + ": /trials/" + std::to_string(i)));
     for (const auto& w : j.at("warnings"))
       r.warnings.push_back({w.at("code").get<std::string>(), w.at("where").get<std::string>(),
                             w.at("message").get<std::string>(), w.at("hint").get<std::string>()});
-    if (j.contains("timing")) r.timing = j.at("timing");
+    r.timing = timing_from_json(stored, "timing");
     if (j.contains("examples")) r.examples = j.at("examples");
   } catch (const nlohmann::json::exception& e) {
     throw InputError(source, std::string("malformed results: ") + e.what());

@@ -225,18 +225,18 @@ std::vector<TrialRecord> run_task(const ExperimentSpec& spec, const LoadedData& 
 
 namespace {
 
-nlohmann::json describe_series(const ExperimentSpec& spec, const LoadedData& data) {
-  nlohmann::json out = nlohmann::json::array();
+std::vector<SeriesDescription> describe_series(const ExperimentSpec& spec, const LoadedData& data) {
+  std::vector<SeriesDescription> out;
   for (std::size_t i = 0; i < data.series.size(); ++i) {
     const Series& s = data.series[i];
-    out.push_back({{"label", s.label()},
-                   {"source", spec.data[data.dataset[i]].label},
-                   {"points", s.values.size()},
-                   {"observed", s.observed_count()},
-                   {"step", s.axis.step().iso()},
-                   {"start", s.axis.size() ? s.axis.format(0) : ""},
-                   {"period", s.period}});
-    if (!s.units.empty()) out.back()["units"] = s.units;
+    out.push_back({.label = s.label(),
+                   .source = spec.data[data.dataset[i]].label,
+                   .points = s.values.size(),
+                   .observed = s.observed_count(),
+                   .step = s.axis.step().iso(),
+                   .start = s.axis.size() ? s.axis.format(0) : "",
+                   .period = s.period,
+                   .units = s.units});
   }
   return out;
 }
@@ -271,19 +271,17 @@ ResultSet results_frame(const ExperimentSpec& spec, const LoadedData& data) {
   results.alpha = spec.alpha;
   results.equivalence = spec.equivalence;
   results.series = describe_series(spec, data);
-  nlohmann::json inputs = nlohmann::json::array();
-  for (std::size_t d = 0; d < spec.data.size(); ++d)
-    inputs.push_back({{"file", spec.data[d].label}, {"sha256", data.input_sha256[d]}});
-  results.context = {{"tool", "gapmark"},
-                     {"version", version()},
-                     {"commit", commit()},
-                     {"spec_name", spec.name},
-                     {"spec", spec.json},
-                     {"spec_sha256", spec.sha256},
-                     {"seed", spec.seed},
-                     {"replicates", spec.replicates},
-                     {"holdout", spec.holdout},
-                     {"inputs", inputs}};
+  std::vector<InputFile> inputs;
+  for (std::size_t d = 0; d < spec.data.size(); ++d) inputs.push_back({spec.data[d].label, data.input_sha256[d]});
+  results.context = {.version = version(),
+                     .commit = commit(),
+                     .spec_name = spec.name,
+                     .spec = spec.json,
+                     .spec_sha256 = spec.sha256,
+                     .seed = spec.seed,
+                     .replicates = spec.replicates,
+                     .holdout = spec.holdout,
+                     .inputs = inputs};
   return results;
 }
 
@@ -305,10 +303,9 @@ ResultSet run_experiment(const ExperimentSpec& spec, const RunOptions& options) 
               slots.warnings[task] = std::move(warnings);
               if (options.progress) options.progress(++finished, tasks.size());
             });
-  const nlohmann::json per_method = gather_task_slots(slots, results);
-  results.timing = {{"wall_seconds", std::chrono::duration<double>(std::chrono::steady_clock::now() - started).count()},
-                    {"fill_seconds_by_method", per_method},
-                    {"threads", std::max(1u, options.threads)}};
+  results.timing.fill_seconds_by_method = gather_task_slots(slots, results);
+  results.timing.wall_seconds = std::chrono::duration<double>(std::chrono::steady_clock::now() - started).count();
+  results.timing.threads = std::max(1u, options.threads);
   return results;
 }
 
@@ -321,15 +318,14 @@ void check_resumable(const CheckpointScan& scan, const nlohmann::json& header, c
     throw InputError(where, "the checkpoint is of another spec (SHA-256 " + scan.spec_sha256.substr(0, 12) +
                                 "..., this spec " + header.at("spec_sha256").get<std::string>().substr(0, 12) +
                                 "...); start again without --resume, or give another --out");
-  const auto& old_context = scan.header.at("frame").at("context");
-  const auto& new_context = header.at("frame").at("context");
-  if (old_context.value("inputs", nlohmann::json()) != new_context.value("inputs", nlohmann::json()))
+  const RunContext old_context = header_context(scan.header, where + ":1");
+  const RunContext new_context = header_context(header, "checkpoint header");
+  if (old_context.inputs != new_context.inputs)
     throw InputError(where, "the data files changed since the checkpoint was written (SHA-256 differs); "
                             "start again without --resume");
-  if (old_context.value("version", "") != new_context.value("version", "") ||
-      old_context.value("commit", "") != new_context.value("commit", ""))
-    throw InputError(where, "the checkpoint was written by gapmark " + old_context.value("version", "?") + " (" +
-                                old_context.value("commit", "?") + "), this is " + version() + " (" + commit() +
+  if (old_context.version != new_context.version || old_context.commit != new_context.commit)
+    throw InputError(where, "the checkpoint was written by gapmark " + old_context.version + " (" +
+                                old_context.commit + "), this is " + version() + " (" + commit() +
                                 "); finish it with that build, or start again without --resume");
   if (shard && *shard != scan.shard)
     throw InputError(where, "the checkpoint is of shard " + scan.shard.text() + ", not " + shard->text());

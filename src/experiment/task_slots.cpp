@@ -19,7 +19,7 @@ void WarningCollector::add(Warning warning) {
   if (seen_.insert(warning_key(warning)).second) into_.push_back(std::move(warning));
 }
 
-nlohmann::json gather_task_slots(TaskSlots& slots, ResultSet& results) {
+std::map<std::string, double> gather_task_slots(TaskSlots& slots, ResultSet& results) {
   std::size_t count = results.trials.size();
   for (const auto& s : slots.records) count += s.size();
   results.trials.reserve(count);
@@ -34,9 +34,7 @@ nlohmann::json gather_task_slots(TaskSlots& slots, ResultSet& results) {
     std::vector<TrialRecord>().swap(slots.records[t]);
     std::vector<Warning>().swap(slots.warnings[t]);
   }
-  nlohmann::json per_method = nlohmann::json::object();
-  for (const auto& [method, seconds] : method_seconds) per_method[method] = seconds;
-  return per_method;
+  return method_seconds;
 }
 
 }  // namespace gapmark

@@ -133,9 +133,9 @@ FolderRunStatus run_into_folder(const ExperimentSpec& spec, const RunOptions& op
   // The examples re-read the data from this spec's folder (not the one a
   // resumed checkpoint recorded); its outside programs already ran in this run.
   const Summary summary = finish_results(results, FinishOptions{.threads = threads, .spec = &spec, .allow_external = true});
-  results.timing["wall_seconds"] = std::chrono::duration<double>(std::chrono::steady_clock::now() - started).count();
-  results.timing["threads"] = threads;
-  results.timing["resumed_tasks"] = status.resumed;
+  results.timing.wall_seconds = std::chrono::duration<double>(std::chrono::steady_clock::now() - started).count();
+  results.timing.threads = threads;
+  results.timing.resumed_tasks = status.resumed;
   status.written = write_final_reports(results, summary, folder.dir, threads);
   status.warnings = std::move(results.warnings);
   return status;

@@ -41,11 +41,8 @@ std::vector<const CellGroup*> groups_of(const Summary& summary, const std::strin
 std::vector<std::string> series_labels(const ResultSet& results, const Summary& summary) {
   std::vector<std::string> out;
   std::set<std::string> seen;
-  if (results.series.is_array())
-    for (const auto& s : results.series) {
-      const std::string label = s.value("label", std::string());
-      if (seen.insert(label).second) out.push_back(label);
-    }
+  for (const auto& s : results.series)
+    if (seen.insert(s.label).second) out.push_back(s.label);
   for (const auto& g : summary.groups)
     if (seen.insert(g.series).second) out.push_back(g.series);
   return out;
@@ -100,15 +97,12 @@ std::string metric_cell(const MetricSummary& s) { return escape(mean_sd(s)); }
 // ---------------------------------------------------------------- sections
 
 std::string page_header(const ResultSet& results, const Summary& summary) {
-  const auto& c = results.context;
-  const std::string name = c.value("spec_name", std::string("experiment"));
-  std::string out = "<header class=\"page\"><h1>Gap-filling benchmark: " + escape(name) + "</h1>";
-  out += "<div class=\"facts\">gapmark " + escape(c.value("version", std::string("?"))) + " (commit " +
-         escape(c.value("commit", std::string("unknown"))) + ") · seed " +
-         escape(c.contains("seed") ? c["seed"].dump() : std::string("?")) + " · " +
-         escape(c.contains("replicates") ? c["replicates"].dump() : std::string("?")) + " replicates · ranked by " +
+  const RunContext& c = results.context;
+  std::string out = "<header class=\"page\"><h1>Gap-filling benchmark: " + escape(c.spec_name) + "</h1>";
+  out += "<div class=\"facts\">gapmark " + escape(c.version) + " (commit " + escape(c.commit) + ") · seed " +
+         std::to_string(c.seed) + " · " + std::to_string(c.replicates) + " replicates · ranked by " +
          escape(summary.rank_by) + " · α = " + short_number(summary.alpha) + "<br>spec SHA-256 <code>" +
-         escape(c.value("spec_sha256", std::string("?"))) + "</code></div></header>";
+         escape(c.spec_sha256) + "</code></div></header>";
   return out;
 }
 
@@ -418,6 +412,14 @@ std::string fits_table(const Summary& summary, const std::string& label) {
          rows + "</tbody></table></div>";
 }
 
+/// The facts line of a series: its file, length, step, period, start and units.
+std::string series_facts(const SeriesDescription& s, const std::string& units) {
+  return "<p class=\"facts\">" + escape(s.source) + " · " + std::to_string(s.points) + " points, " +
+         std::to_string(s.observed) + " observed · step " + escape(s.step) + " · period " +
+         (s.period ? std::to_string(s.period) : std::string("none")) + " · starts " + escape(s.start) +
+         (units.empty() ? "" : " · units " + escape(units)) + "</p>";
+}
+
 std::string series_section(const ResultSet& results, const Summary& summary, const std::string& label,
                            std::size_t index) {
   const auto groups = groups_of(summary, label);
@@ -425,16 +427,8 @@ std::string series_section(const ResultSet& results, const Summary& summary, con
   std::vector<std::string> shown(order.begin(), order.begin() + std::min(order.size(), kShownMethods));
   StyleMap styles(order);
   std::string out = "<section id=\"" + anchor(index) + "\"><h2>" + escape(label) + "</h2>";
-  if (results.series.is_array())
-    for (const auto& s : results.series)
-      if (s.value("label", std::string()) == label)
-        out += "<p class=\"facts\">" + escape(s.value("source", std::string())) + " · " +
-               std::to_string(s.value("points", 0)) + " points, " + std::to_string(s.value("observed", 0)) +
-               " observed · step " + escape(s.value("step", std::string())) + " · period " +
-               (s.value("period", 0) ? std::to_string(s.value("period", 0)) : std::string("none")) + " · starts " +
-               escape(s.value("start", std::string())) +
-               (series_units(results, label).empty() ? "" : " · units " + escape(series_units(results, label))) +
-               "</p>";
+  for (const auto& s : results.series)
+    if (s.label == label) out += series_facts(s, series_units(results, label));
   if (groups.empty()) return out + "<p class=\"empty\">No trials for this series.</p></section>";
   out += recommendation_card(summary, label);
   out += "<h3>Leading methods</h3>" + legend(shown, styles);
@@ -506,7 +500,7 @@ public:
   std::string file_name() const override { return "report.html"; }
 
   std::string render(const ResultSet& results, const Summary& summary) const override {
-    const std::string name = results.context.value("spec_name", std::string("experiment"));
+    const std::string& name = results.context.spec_name;
     const auto labels = series_labels(results, summary);
     const auto warnings = all_warnings(results, summary);
     std::string out = "<!DOCTYPE html>\n<html lang=\"en\"><head><meta charset=\"utf-8\">"
@@ -524,7 +518,7 @@ public:
     for (std::size_t i = 0; i < labels.size(); ++i) out += series_section(results, summary, labels[i], i);
     out += across_section(summary);
     out += warnings_section(warnings, summary.verdict);
-    out += "<footer>Made by gapmark " + escape(results.context.value("version", std::string("?"))) +
+    out += "<footer>Made by gapmark " + escape(results.context.version) +
            " from the results of spec " + escape(name) +
            ". This page is self-contained: it loads nothing from elsewhere. methods.md describes the "
            "experiment for a paper; results.json holds every trial.</footer></main></body></html>\n";

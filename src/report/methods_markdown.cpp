@@ -201,29 +201,26 @@ std::string fits_section(const Summary& summary) {
 std::string limitations_section(const ResultSet& results, const Summary& summary, double max_rate) {
   std::string out = "\n## Limitations\n\n";
   out += "The real gaps of the series were not scored: there is no truth for them, and the masks only imitate them.";
-  if (results.series.is_array()) {
-    std::vector<std::string> shares;
-    for (const auto& s : results.series) {
-      const double points = s.value("points", 0.0), observed = s.value("observed", 0.0);
-      if (points <= 0) continue;
-      const double total = (points - observed + max_rate * observed) / points;
-      if (points - observed > 0) shares.push_back(markdown_code(s.value("label", std::string())) + " " + percent(total));
-    }
-    if (!shares.empty())
-      out += " The masks came on top of the series' own missing values, so at the highest rate the total missing "
-             "share was " + join(shares) + ".";
+  std::vector<std::string> shares;
+  for (const auto& s : results.series) {
+    const auto points = static_cast<double>(s.points), observed = static_cast<double>(s.observed);
+    if (points <= 0) continue;
+    const double total = (points - observed + max_rate * observed) / points;
+    if (points - observed > 0) shares.push_back(markdown_code(s.label) + " " + percent(total));
   }
+  if (!shares.empty())
+    out += " The masks came on top of the series' own missing values, so at the highest rate the total missing "
+           "share was " + join(shares) + ".";
   out += " The intervals describe the variation from mask to mask on these series only, not the variation to "
          "expect on other series, other periods or other kinds of gaps.";
   std::vector<std::string> assumed;
-  const auto& spec = results.context.value("spec", nlohmann::json::object());
+  const auto& spec = results.context.spec;
   bool period_given = false;
   if (spec.is_object() && spec.contains("data") && spec["data"].is_array())
     for (const auto& d : spec["data"]) period_given = period_given || d.contains("period") || d.contains("periods");
-  if (!period_given && results.series.is_array())
+  if (!period_given)
     for (const auto& s : results.series)
-      if (s.value("period", 0) > 0)
-        assumed.push_back(markdown_code(s.value("label", std::string())) + " (" + std::to_string(s.value("period", 0)) + ")");
+      if (s.period > 0) assumed.push_back(markdown_code(s.label) + " (" + std::to_string(s.period) + ")");
   if (!assumed.empty())
     out += " The seasonal period was not set in the spec; the one assumed from the time step was used for " +
            join(assumed) + ".";
@@ -236,27 +233,18 @@ std::string limitations_section(const ResultSet& results, const Summary& summary
 
 /// The series and the input files.
 std::string data_section(const ResultSet& results) {
-  const auto& ctx = results.context;
   std::string out = "## Data\n\n";
-  const std::size_t n_series = results.series.is_array() ? results.series.size() : 0;
   std::set<std::string> sources;
-  if (results.series.is_array())
-    for (const auto& s : results.series) sources.insert(s.value("source", std::string()));
-  out += "The benchmark used " + std::to_string(n_series) + " series from " + std::to_string(sources.size()) +
-         " data file" + (sources.size() == 1 ? "" : "s") + ":\n\n";
-  if (results.series.is_array())
-    for (const auto& s : results.series) {
-      const std::size_t period = s.value("period", 0);
-      out += "- " + markdown_code(s.value("label", std::string())) + " (" + markdown_text(s.value("source", std::string())) + "): " +
-             std::to_string(s.value("points", 0)) + " points, " + std::to_string(s.value("observed", 0)) +
-             " observed, regular step " + s.value("step", std::string()) + " starting " +
-             s.value("start", std::string()) + ", seasonal period " +
-             (period ? std::to_string(period) + " steps" : std::string("none")) + ".\n";
-    }
-  if (ctx.contains("inputs") && ctx["inputs"].is_array() && !ctx["inputs"].empty()) {
+  for (const auto& s : results.series) sources.insert(s.source);
+  out += "The benchmark used " + std::to_string(results.series.size()) + " series from " +
+         std::to_string(sources.size()) + " data file" + (sources.size() == 1 ? "" : "s") + ":\n\n";
+  for (const auto& s : results.series)
+    out += "- " + markdown_code(s.label) + " (" + markdown_text(s.source) + "): " + std::to_string(s.points) +
+           " points, " + std::to_string(s.observed) + " observed, regular step " + s.step + " starting " + s.start +
+           ", seasonal period " + (s.period ? std::to_string(s.period) + " steps" : std::string("none")) + ".\n";
+  if (!results.context.inputs.empty()) {
     out += "\nInput files and their SHA-256 digests:";
-    for (const auto& in : ctx["inputs"])
-      out += " `" + in.value("file", std::string()) + "` (`" + in.value("sha256", std::string()) + "`)";
+    for (const auto& in : results.context.inputs) out += " `" + in.file + "` (`" + in.sha256 + "`)";
     out += ".\n";
   }
   return out;
@@ -289,10 +277,9 @@ Design design_of(const ResultSet& results) {
 
 /// The schemes and rates, replicates and seeds, the holdout, excluded conditions.
 std::string masking_section(const ResultSet& results, const Summary& summary, const Design& design) {
-  const auto& ctx = results.context;
-  const std::string replicates = ctx.contains("replicates") ? ctx["replicates"].dump() : "?";
-  const std::string seed = ctx.contains("seed") ? ctx["seed"].dump() : "?";
-  const std::size_t holdout = ctx.value("holdout", std::size_t{0});
+  const std::string replicates = std::to_string(results.context.replicates);
+  const std::string seed = std::to_string(results.context.seed);
+  const std::size_t holdout = results.context.holdout;
   std::string out = "\n## Masking\n\nObserved values were hidden artificially and each method was scored on the hidden "
                     "points only. The masking schemes and missing rates (fractions of the eligible observed points) "
                     "were:\n\n";
@@ -339,12 +326,10 @@ std::string methods_and_metrics_sections(const ResultSet& results, const Design&
 
 /// The build and spec that reproduce the run, then the works cited.
 std::string reproducibility_and_references(const ResultSet& results, const std::vector<CitedUse>& uses) {
-  const auto& ctx = results.context;
+  const RunContext& ctx = results.context;
   std::string out = "\n## Reproducibility\n\n";
-  out += "The experiment was run with gapmark " + ctx.value("version", std::string("?")) + " (source commit " +
-         ctx.value("commit", std::string("unknown")) + ") from the spec `" +
-         ctx.value("spec_name", std::string("experiment")) + "` with SHA-256 `" +
-         ctx.value("spec_sha256", std::string("?")) + "`. Running `gapmark run` on the same spec and data "
+  out += "The experiment was run with gapmark " + ctx.version + " (source commit " + ctx.commit + ") from the spec `" +
+         ctx.spec_name + "` with SHA-256 `" + ctx.spec_sha256 + "`. Running `gapmark run` on the same spec and data "
          "reproduces every mask and every number reported here; the spec is stored in results.json.\n";
   const auto keys = cited_keys(uses);
   if (!keys.empty()) {

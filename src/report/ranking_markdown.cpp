@@ -22,7 +22,7 @@ public:
     const std::size_t rank_col = results.column_index(results.rank_by);
     const auto& rc = results.columns[rank_col];
     const std::string level = short_number(100 * (1 - summary.alpha));
-    std::string out = "# Ranked fill methods: " + markdown_text(results.context.value("spec_name", std::string("experiment"))) + "\n\n";
+    std::string out = "# Ranked fill methods: " + markdown_text(results.context.spec_name) + "\n\n";
     out += "Filled values are estimates. A benchmark on synthetic masks can flatter a method when the "
            "real gaps differ; where filled data feed safety decisions, follow the applicable standards "
            "and have a qualified person review the choice.\n\n";

@@ -130,8 +130,7 @@ std::string call_name(const std::string& label) {
 std::string forecast_model(const ResultSet& results) {
   namespace fc = metric_names::forecast;
   try {
-    const auto spec = results.context.value("spec", nlohmann::json::object());
-    for (const auto& m : bind_spec_metrics(spec, "results: /context/spec"))
+    for (const auto& m : bind_spec_metrics(results.context.spec, "results: /context/spec"))
       if (m.entry && m.entry->name == fc::kName) return m.params.text(fc::kModel);
   } catch (const InputError&) {
   }

@@ -36,13 +36,8 @@ std::string interval(const MetricSummary& s) {
 }
 
 std::string series_units(const ResultSet& results, const std::string& label) {
-  if (!results.series.is_array()) return "";
-  for (const auto& s : results.series)
-    if (s.is_object() && s.value("label", std::string()) == label) {
-      const auto it = s.find("units");
-      return it != s.end() && it->is_string() ? it->get<std::string>() : "";
-    }
-  return "";
+  const SeriesDescription* s = find_series(results.series, label);
+  return s ? s->units : "";
 }
 
 std::string metric_label(const MetricColumn& column, const std::string& units) {

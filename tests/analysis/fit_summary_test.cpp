@@ -36,10 +36,9 @@ TrialRecord fitted(const std::string& series, const std::string& method, int rep
 
 ResultSet results() {
   ResultSet rs;
-  rs.context = nlohmann::json::object();
   rs.columns = {MetricColumn{"rmse", "value", Direction::Lower, "root mean squared error"}};
   rs.rank_by = "rmse";
-  rs.series = nlohmann::json::array({{{"label", "s"}}, {{"label", "t"}}});
+  rs.series = {{.label = "s"}, {.label = "t"}};
   // series s, method m: a = 3, 1, 2, 10 -> median 2.5 (mean of the middle two), range [1, 10];
   // models A three times, B once (B also has b = 20 once)
   rs.trials.push_back(fitted("s", "m", 0, "A", 3, -10));

@@ -34,7 +34,7 @@ ResultSet rmse_results() {
   ResultSet rs;
   rs.columns = {MetricColumn{"rmse", "value", Direction::Lower, "root mean squared error"}};
   rs.rank_by = "rmse";
-  rs.series = nlohmann::json::array({{{"label", "s"}}});
+  rs.series = {{.label = "s"}};
   return rs;
 }
 
@@ -174,9 +174,9 @@ TEST_CASE("a condition whose masking failed is left out of tables, verdicts and 
 
 TEST_CASE("across series: one data set per series, and a warning below five series") {
   ResultSet rs = rmse_results();
-  rs.series = nlohmann::json::array();
+  rs.series.clear();
   for (const char* series : {"x", "y", "z"}) {
-    rs.series.push_back({{"label", series}});
+    rs.series.push_back({.label = series});
     for (const char* scheme : {"blocks", "random"})
       for (int r = 0; r < 8; ++r) {
         rs.trials.push_back(trial("a", r, 1.0 + 0.01 * r, scheme, series));

@@ -70,7 +70,7 @@ ResultSet one_cell(const std::vector<double>& values, Direction direction, bool 
   ResultSet r;
   r.columns = {{"m", "value", direction, "a metric"}};
   r.rank_by = "m";  // the ranking metric is compared without a tolerance given
-  r.context = {{"seed", 1}};
+  r.context.seed = 1;
   for (std::size_t i = 0; i < values.size(); ++i) {
     const std::size_t k = reversed ? values.size() - 1 - i : i;
     TrialRecord t;
@@ -163,7 +163,7 @@ TEST_CASE("a method made worse is named as a regression; the others are unchange
   SUBCASE("timing is ignored and the comparison survives a round trip through results.json") {
     ResultSet copy = results_from_json(nlohmann::json::parse(results_to_json(baseline, summarize(baseline)).dump()),
                                        "copy");
-    copy.timing = {{"wall_seconds", 12345.0}};
+    copy.timing.wall_seconds = 12345.0;
     CHECK(compare_results(baseline, copy).no_change);
   }
 }
@@ -190,8 +190,8 @@ TEST_CASE("files that share no cell are refused, saying what differs") {
   const std::vector<double> v{1, 2, 3, 4, 5, 6};
   ResultSet a = one_cell(v, Direction::Lower, false);
   ResultSet b = one_cell(v, Direction::Lower, false);
-  a.context["spec_sha256"] = "aaaaaaaaaaaaaaaa";
-  b.context["spec_sha256"] = "bbbbbbbbbbbbbbbb";
+  a.context.spec_sha256 = "aaaaaaaaaaaaaaaa";
+  b.context.spec_sha256 = "bbbbbbbbbbbbbbbb";
   for (auto& t : b.trials) t.method = "pchip", t.series = "other";
   CHECK_THROWS_WITH_AS(compare_results(a, b, {}, "base.json", "cur.json"),
                        "cur.json: no cell in common with base.json, nothing to compare; spec SHA-256 aaaaaaaaaaaa vs "

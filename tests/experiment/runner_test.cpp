@@ -137,7 +137,7 @@ TEST_CASE("results do not depend on the thread count and are identical run after
   auto b = run_experiment(spec, four);
   auto c = run_experiment(parse_spec(text, "t.json", "."), one);
   auto dump = [](ResultSet r) {
-    r.timing = nullptr;
+    r.timing = {};
     return results_to_json(r, summarize(r)).dump();
   };
   CHECK(dump(a) == dump(b));

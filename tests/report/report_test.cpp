@@ -277,7 +277,7 @@ TEST_CASE("numbers are rounded to what their interval supports") {
 
 TEST_CASE("units from the spec label the metrics in the data's units") {
   ResultSet results;
-  results.series = nlohmann::json::array({{{"label", "flow"}, {"units", "m3/s"}}, {{"label", "count"}}});
+  results.series = {{.label = "flow", .units = "m3/s"}, {.label = "count"}};
   CHECK(series_units(results, "flow") == "m3/s");
   CHECK(series_units(results, "count").empty());
   CHECK(metric_label(MetricColumn{"rmse", "value", Direction::Lower, ""}, "m3/s") == "rmse (m3/s)");
@@ -307,7 +307,7 @@ TEST_CASE("Holt-Winters is cited only when the forecast metric used it, as the s
   ResultSet r;
   r.columns = {{"mase_filled", "scaled error", Direction::Lower, ""}};
   const auto cites_winters = [&](const nlohmann::json& metrics) {
-    r.context = {{"spec", {{"metrics", metrics}}}};
+    r.context.spec = {{"metrics", metrics}};
     const auto keys = cited_keys(cited_uses(r, Summary{}));
     return std::find(keys.begin(), keys.end(), "winters1960") != keys.end();
   };

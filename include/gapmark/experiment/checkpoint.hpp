@@ -40,6 +40,13 @@ std::filesystem::path checkpoint_path(const std::filesystem::path& dir_or_file);
 /// The header line's content for a run of `spec` on `data` as shard `shard`.
 nlohmann::json checkpoint_header(const ExperimentSpec& spec, const LoadedData& data, const Shard& shard);
 
+/// The run's context a header records; errors name `where` (the file and
+/// line) and the member's JSON pointer.
+RunContext header_context(const nlohmann::json& header, const std::string& where);
+/// The results frame a header records: context, series, columns, rank_by,
+/// alpha and equivalence (no trials); errors as for header_context.
+ResultSet stored_frame(const nlohmann::json& header, const std::string& where);
+
 /// One task's line (ending in '\n'). Non-finite metric values are written as null.
 std::string task_line(std::size_t task, const std::vector<TrialRecord>& trials,
                       const std::vector<Warning>& warnings);

@@ -8,6 +8,10 @@
 #include <string>
 #include <vector>
 
+#include "gapmark/experiment/record_checks.hpp"
+#include "gapmark/experiment/run_context.hpp"
+#include "gapmark/experiment/run_timing.hpp"
+#include "gapmark/experiment/series_description.hpp"
 #include "gapmark/fill/model_fit.hpp"
 #include "gapmark/score/metric.hpp"
 
@@ -63,15 +67,15 @@ struct Warning {
 };
 
 struct ResultSet {
-  nlohmann::json context;              ///< version, commit, schema, seed, spec, inputs' SHA-256
-  nlohmann::json series;               ///< per series: label, source, n, observed, period, step
+  RunContext context;                  ///< the build, the spec, the seed, the inputs' SHA-256
+  std::vector<SeriesDescription> series;
   std::vector<MetricColumn> columns;
   std::vector<TrialRecord> trials;     ///< in canonical order
   std::vector<Warning> warnings;
   std::string rank_by = "rmse";
   double alpha = 0.05;
   double equivalence = kDefaultEquivalence;  ///< relative margin on the ranking metric
-  nlohmann::json timing;               ///< wall-clock facts; comparisons ignore it
+  RunTiming timing;                    ///< wall-clock facts; comparisons ignore it
   nlohmann::json examples;             ///< optional example windows (analysis/examples.hpp); null = none
 
   std::size_t column_index(const std::string& name) const;  ///< InputError if absent
@@ -79,6 +83,10 @@ struct ResultSet {
 
 /// Adds a warning unless the same (code, where) is already there.
 void add_warning(std::vector<Warning>& warnings, Warning warning);
+
+/// The metric columns as stored in results.json and checkpoint headers.
+nlohmann::json columns_to_json(const std::vector<MetricColumn>& columns);
+std::vector<MetricColumn> columns_from_json(const StoredObject& stored, const std::string& key);
 
 nlohmann::json trial_to_json(const TrialRecord& t, const std::vector<MetricColumn>& columns);
 TrialRecord trial_from_json(const nlohmann::json& j, const std::vector<MetricColumn>& columns,

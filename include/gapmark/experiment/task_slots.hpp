@@ -4,7 +4,7 @@
 // memory and a merge of checkpoints both go through gather_task_slots, so the
 // two count warnings and times the same way.
 #include <cstddef>
-#include <nlohmann/json.hpp>
+#include <map>
 #include <string>
 #include <unordered_set>
 #include <vector>
@@ -36,6 +36,6 @@ struct TaskSlots {
 /// goes: records onto results.trials, warnings onto results.warnings through
 /// a WarningCollector. Returns timing's "fill_seconds_by_method": the fill
 /// seconds summed per method over the records with a finite time.
-nlohmann::json gather_task_slots(TaskSlots& slots, ResultSet& results);
+std::map<std::string, double> gather_task_slots(TaskSlots& slots, ResultSet& results);
 
 }  // namespace gapmark
