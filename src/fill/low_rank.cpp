@@ -1,39 +1,8 @@
 // Low-rank completion across the series of one data set that share the time
-// axis: the matrix is time x series, the request's series (with its gaps)
-// first, then each sibling (its own missing values are missing cells too).
-// Each column is centred and scaled on its observed cells, the matrix is
-// completed by soft-impute (soft_impute.hpp), the columns are scaled back and
-// the request's column is returned with its observed values unchanged.
-//
-// Parameters:
-//   rank    keep at most this many components (0 = no cap)
-//   lambda  soft threshold as a fraction of lambda_max, the largest singular
-//           value of the standardised matrix with missing cells set to 0
-//           (at lambda_max the fit is zero, i.e. column means)
-//   lambda given     -> one fit at that lambda (rank, if given, caps it),
-//                       from a zero start
-//   rank only        -> lambda 0 with the rank cap: iterated rank-r SVD,
-//                       warm-started by the rank-capped path of 20 lambdas
-//                       from lambda_max down to lambda_max / 1000 (the
-//                       rank-capped problem is not convex: in trials on
-//                       exactly low-rank data a zero start stalled far from
-//                       the answer where the warm-started fit recovered it)
-//   neither          -> lambda chosen by hold-out validation (below), no cap
-// The fraction scale for lambda is a convenience of this tool (the paper
-// states lambda in the matrix's own units); rank counts components after
-// centring, so data of rank r whose columns do not share a constant factor
-// need rank r + 1 here.
-//
-// Choosing lambda: 10 % of the observed cells are held out (common practice,
-// no source), drawn with gapmark::Rng from a seed hashed from the data, so
-// the same data give the same choice; 20 lambdas from lambda_max down to
-// lambda_max / 1000, geometric, fitted with warm starts; the path stops once
-// the held-out error has not improved for 3 grid points (common practice).
-// The refit on all cells starts from the fit at the chosen lambda.
-//
-// Siblings of a different length, or with no observed value, are left out.
-// A time step observed in no series is filled with the series' observed mean
-// (the estimate there stays at its zero start).
+// axis (soft-impute on the standardised time x series matrix), with lambda
+// given, or chosen on held-out cells along a warm-started path. Parameters
+// and the choice of lambda: docs/fill-methods.md, "How low-rank chooses
+// lambda".
 #include <algorithm>
 #include <cmath>
 #include <cstdint>

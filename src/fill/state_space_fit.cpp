@@ -1,40 +1,8 @@
-// Maximum-likelihood variances of a structural model.
-//
-// The data are centred and scaled to unit variance first (the diffuse
-// likelihood does not depend on the centre, and the scale only shifts it by
-// -effective * log(scale)), so huge or tiny magnitudes behave alike.
-//
-// Parameters: one variance is the reference; the others are exp(x_j) times
-// it, and the common scale is concentrated out of the likelihood (its best
-// value is sum(v^2/F) / effective), leaving variance_count - 1 free log
-// ratios, each bounded to [-23, 23] (ratios 1e-10 .. 1e10). BOBYQA (NLopt,
-// derivative-free, deterministic) maximises the concentrated likelihood from
-// each starting share in fit_starts(); the reference of a start is its
-// largest share. These searches are short (at most 20 likelihood passes, at
-// tolerances 1000 times coarser than asked: they only need to find the best
-// basin, and on the stored references they end in the same optimum as
-// searches run to convergence); the best end point is then
-// polished to full tolerance with its own largest variance as the reference,
-// so that a reference whose estimate goes to zero cannot pin the others to a
-// bound. A search stops when a step moves every log ratio by less than the x
-// tolerance or the log-likelihood by less than the f tolerance.
-//
-// Models with two variances (the local level) have a single free log ratio
-// x = log(level / irregular) in [-23, 23]. A one-dimensional search serves it
-// better: the concentrated likelihood and its slope in x at 9 evenly spaced
-// ratios, all in one pass over the data (state_space_level.hpp), pick the
-// basin; the maximum lies between the best grid point and the neighbour its
-// slope points to, where the slope changes sign. Four inner points (one more
-// pass) narrow that bracket fivefold, and Newton's method (Boost.Math) on the
-// slope, with the curvature from the same pass, finds its zero to the x
-// tolerance (a step below it). A best
-// grid point on a bound is kept when the slope there points out of the range
-// (fits whose irregular or level variance goes to zero end there, as
-// BOBYQA's do). Where the slopes do not bracket a zero beside the best point
-// (a likelihood with several bumps), Brent's method (Boost.Math) searches the
-// likelihood between the best point's two neighbours instead. In all some
-// five single passes' worth of work: the two batched passes, then 2-4 Newton
-// steps (the evaluation count reports each ratio: 15-18).
+// Maximum-likelihood variances of a structural model: the local level by a
+// batched grid, Newton and Brent search on its one log ratio; the other
+// models by short BOBYQA searches from several starts, the best polished.
+// The algorithm, step by step: docs/fill-methods.md, "How kalman fits its
+// variances".
 #include <algorithm>
 #include <array>
 #include <optional>

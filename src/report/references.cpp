@@ -1,8 +1,8 @@
-// The reference table. The bibliographic details below were written from
-// memory and checked against what the authors of this file know of each
-// work (authors, title, journal, volume, issue, pages, year); DOIs are given
-// only where we are confident of them. Check an entry against the
-// publisher's record before citing it in print.
+// The reference table. Every entry below (authors, title, journal, volume,
+// issue, pages, year) was written from memory; none has yet been checked
+// against the publisher's record, and references.bib says so to its reader.
+// The few DOIs given are also from memory. Checking an entry means comparing it
+// with the publisher's page and saying so in the entry's comment.
 #include "gapmark/report/references.hpp"
 
 #include <algorithm>
@@ -97,7 +97,7 @@ const std::vector<Reference> kReferences = {
 /// Fill methods (registry names).
 const std::map<std::string, std::vector<std::string>> kMethodKeys = {
     {"pchip", {"fritsch1980"}},          {"akima-weighted", {"akima1970"}},  {"natural-spline", {"deboor1978"}},
-    {"kalman", {"durbin2012"}},          {"low-rank", {"mazumder2010"}},
+    {"kalman", {"durbin2012"}},          {"arima", {"durbin2012"}},          {"low-rank", {"mazumder2010"}},
 };
 
 /// Metric columns.

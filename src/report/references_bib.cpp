@@ -13,8 +13,8 @@ public:
   std::string render(const ResultSet& results, const Summary& summary) const override {
     const auto uses = cited_uses(results, summary);
     std::string out = "% References for the methods, metrics and tests used in this gapmark run.\n"
-                      "% Entries were written from the authors' knowledge of each work: check them against\n"
-                      "% the publisher's record before citing.\n";
+                      "% Entries were written from memory and have not been checked against the publishers'\n"
+                      "% records: check each before citing it.\n";
     for (const auto& u : uses) {
       out += "% " + u.kind + " " + u.name + ":";
       for (const auto& k : u.keys) out += " " + k;
