@@ -237,7 +237,11 @@ std::size_t WideTable::column_index(const std::string& name) const {
   return static_cast<std::size_t>(it - columns.begin());
 }
 
-WideTable parse_wide_csv(const CsvTable& csv, const WideReadOptions& options) {
+namespace {
+
+/// The time column's index: the one named, else the first; the file must
+/// have a value column and a data row.
+std::size_t time_column_of(const CsvTable& csv, const WideReadOptions& options) {
   std::size_t time_col = 0;
   if (!options.time_column.empty()) {
     const auto it = std::find(csv.header.begin(), csv.header.end(), options.time_column);
@@ -250,15 +254,14 @@ WideTable parse_wide_csv(const CsvTable& csv, const WideReadOptions& options) {
     throw InputError(csv.source,
                      "no value columns: the file has only the time column '" + csv.header[time_col] + "'");
   if (csv.rows.empty()) throw InputError(csv.source, "no data rows below the header");
+  return time_col;
+}
 
-  WideTable table;
-  table.source = csv.source;
-  table.time_header = csv.header[time_col];
-  const std::size_t n = csv.rows.size();
-
+/// Every row's time, parsed; the cells as written go to table.time_text.
+std::vector<TimePoint> read_times(const CsvTable& csv, std::size_t time_col, WideTable& table) {
   std::vector<TimePoint> times;
-  times.reserve(n);
-  for (std::size_t r = 0; r < n; ++r) {
+  times.reserve(csv.rows.size());
+  for (std::size_t r = 0; r < csv.rows.size(); ++r) {
     const std::string& cell = csv.rows[r][time_col];
     const auto time = parse_time(cell);
     if (!time) {
@@ -272,41 +275,38 @@ WideTable parse_wide_csv(const CsvTable& csv, const WideReadOptions& options) {
     times.push_back(*time);
     table.time_text.push_back(cell);
   }
+  return times;
+}
 
-  for (std::size_t c = 0; c < csv.header.size(); ++c) {
-    if (c == time_col) continue;
-    const std::string& name = csv.header[c];
-    std::vector<double> values(n);
-    std::vector<std::string> cells(n);
-    for (std::size_t r = 0; r < n; ++r) {
-      const std::string& cell = csv.rows[r][c];
-      cells[r] = cell;
-      if (is_missing_token(cell)) {
-        values[r] = std::nan("");
-        continue;
-      }
-      const auto value = parse_double(cell);
-      const std::string where = at_line(csv.source, csv.lines[r]);
-      if (!value) throw InputError(where, "column '" + name + "': not a number: " + quoted_for_message(cell));
-      if (!std::isfinite(*value))
-        throw InputError(where, "column '" + name + "': not a finite number: '" + cell + "'");
-      values[r] = *value;
+/// Column c's numbers (NaN for a missing token) and cells, added to the table.
+void add_value_column(const CsvTable& csv, std::size_t c, WideTable& table) {
+  const std::size_t n = csv.rows.size();
+  const std::string& name = csv.header[c];
+  std::vector<double> values(n);
+  std::vector<std::string> cells(n);
+  for (std::size_t r = 0; r < n; ++r) {
+    const std::string& cell = csv.rows[r][c];
+    cells[r] = cell;
+    if (is_missing_token(cell)) {
+      values[r] = std::nan("");
+      continue;
     }
-    table.columns.push_back(name);
-    table.values.push_back(std::move(values));
-    table.cells.push_back(std::move(cells));
+    const auto value = parse_double(cell);
+    const std::string where = at_line(csv.source, csv.lines[r]);
+    if (!value) throw InputError(where, "column '" + name + "': not a number: " + quoted_for_message(cell));
+    if (!std::isfinite(*value))
+      throw InputError(where, "column '" + name + "': not a finite number: '" + cell + "'");
+    values[r] = *value;
   }
+  table.columns.push_back(name);
+  table.values.push_back(std::move(values));
+  table.cells.push_back(std::move(cells));
+}
 
-  if (!options.step) {
-    table.axis = infer_axis(times, options.step, csv.source, csv.lines);
-    return table;
-  }
-  // A given step places the rows on its grid: times it has no row for become
-  // rows of missing values.
-  std::vector<std::size_t> position;
-  table.axis = infer_axis(times, options.step, csv.source, csv.lines, &position);
+/// Moves the n rows read to their `position` on the axis; the grid times
+/// without a row become rows of missing values, their time written from the axis.
+void spread_onto_axis(WideTable& table, const std::vector<std::size_t>& position, std::size_t n) {
   const std::size_t points = table.axis.size();
-  if (points == n) return table;
   std::vector<std::string> time_text(points);
   for (std::size_t k = 0; k < points; ++k) time_text[k] = table.axis.format(k);
   for (std::size_t r = 0; r < n; ++r) time_text[position[r]] = table.time_text[r];
@@ -322,6 +322,27 @@ WideTable parse_wide_csv(const CsvTable& csv, const WideReadOptions& options) {
     table.cells[c] = std::move(cells);
   }
   table.added_rows = points - n;
+}
+
+}  // namespace
+
+WideTable parse_wide_csv(const CsvTable& csv, const WideReadOptions& options) {
+  const std::size_t time_col = time_column_of(csv, options);
+  WideTable table;
+  table.source = csv.source;
+  table.time_header = csv.header[time_col];
+  const std::vector<TimePoint> times = read_times(csv, time_col, table);
+  for (std::size_t c = 0; c < csv.header.size(); ++c)
+    if (c != time_col) add_value_column(csv, c, table);
+  if (!options.step) {
+    table.axis = infer_axis(times, options.step, csv.source, csv.lines);
+    return table;
+  }
+  // A given step places the rows on its grid: times it has no row for become
+  // rows of missing values.
+  std::vector<std::size_t> position;
+  table.axis = infer_axis(times, options.step, csv.source, csv.lines, &position);
+  if (table.axis.size() != csv.rows.size()) spread_onto_axis(table, position, csv.rows.size());
   return table;
 }
 

@@ -453,6 +453,88 @@ TimeAxis place_on_grid(std::span<const TimePoint> times, const Step& step, const
   return axis;
 }
 
+std::string time_text(const TimePoint& t) { return format_time(t.kind, t.value, t.offset_minutes, t.utc_z); }
+
+/// The times read, with the file and lines they came from, for errors.
+struct TimeRows {
+  std::span<const TimePoint> times;
+  std::string_view file;
+  std::span<const std::size_t> lines;
+  std::string where(std::size_t i) const { return line_where(file, lines[i]); }
+};
+
+/// One kind of time and one offset, strictly increasing.
+void check_increasing(const TimeRows& rows) {
+  const auto& times = rows.times;
+  const TimePoint& first = times.front();
+  for (std::size_t i = 1; i < times.size(); ++i) {
+    const TimePoint& t = times[i];
+    if (t.kind != first.kind)
+      throw InputError(rows.where(i), std::string("mixed time formats: ") + kind_name(t.kind) + " here, " +
+                                          kind_name(first.kind) + " on line " + std::to_string(rows.lines[0]));
+    if (t.offset_minutes != first.offset_minutes)
+      throw InputError(rows.where(i), "mixed UTC offsets: " + offset_name(t) + " here, " + offset_name(first) +
+                                          " on line " + std::to_string(rows.lines[0]) +
+                                          " (write all times with one offset)");
+    const TimePoint& previous = times[i - 1];
+    if (t.value == previous.value) throw InputError(rows.where(i), "duplicate time " + time_text(t));
+    if (t.value < previous.value)
+      throw InputError(rows.where(i), "time " + time_text(t) + " comes before " + time_text(previous) + " on line " +
+                                          std::to_string(rows.lines[i - 1]) + " (sort the rows by time)");
+  }
+}
+
+/// A given step must fit the kind of times.
+void check_step_fits(TimeKind kind, const Step& step, const std::string& step_where) {
+  if (kind == TimeKind::Index && step.unit != Step::Unit::Index)
+    throw InputError(step_where, "step " + step.iso() + " does not fit integer times; give a whole number");
+  if (kind != TimeKind::Index && step.unit == Step::Unit::Index)
+    throw InputError(step_where, "step " + step.iso() +
+                                     " does not fit dated times; give an ISO 8601 "
+                                     "duration such as PT1H or P1D");
+  if (kind == TimeKind::Date && step.unit == Step::Unit::Seconds && step.amount % kDay != 0)
+    throw InputError(step_where, "step " + step.iso() +
+                                     " does not fit dates (YYYY-MM-DD); use days, weeks, "
+                                     "months or years");
+}
+
+/// The step: given; one default for a single row; calendar months when the
+/// dates keep one day of month (which goes to style.month_day); otherwise
+/// the smallest difference.
+Step choose_axis_step(std::span<const TimePoint> times, std::optional<Step> step, AxisStyle& style) {
+  const TimeKind kind = times.front().kind;
+  const std::optional<int> anchor = kind == TimeKind::Index ? std::nullopt : month_anchor(times);
+  if (step) {
+    if (step->unit == Step::Unit::Months && anchor) style.month_day = *anchor;
+    return *step;
+  }
+  if (times.size() == 1) return kind == TimeKind::Index ? Step{} : Step{Step::Unit::Seconds, kDay};
+  std::int64_t smallest = std::numeric_limits<std::int64_t>::max();
+  if (anchor) {
+    for (std::size_t i = 1; i < times.size(); ++i)
+      smallest = std::min(smallest, month_number(to_civil(times[i].value)) - month_number(to_civil(times[i - 1].value)));
+    style.month_day = *anchor;
+    return Step{Step::Unit::Months, smallest};
+  }
+  for (std::size_t i = 1; i < times.size(); ++i) smallest = std::min(smallest, times[i].value - times[i - 1].value);
+  return Step{kind == TimeKind::Index ? Step::Unit::Index : Step::Unit::Seconds, smallest};
+}
+
+/// Every time is the axis' point at its row.
+void check_regular(const TimeAxis& axis, const TimeRows& rows, bool step_given) {
+  const auto& times = rows.times;
+  const TimePoint& first = times.front();
+  for (std::size_t i = 1; i < times.size(); ++i) {
+    const std::int64_t expected = axis.at(i);
+    if (times[i].value == expected) continue;
+    const TimePoint want{first.kind, expected, first.offset_minutes, first.utc_z};
+    throw InputError(rows.where(i), "irregular time step: expected " + time_text(want) + " after " +
+                                        time_text(times[i - 1]) + ", found " + time_text(times[i]) +
+                                        (step_given ? " (regularize the data first, or check --step)"
+                                                    : " (regularize the data first, or give --step)"));
+  }
+}
+
 }  // namespace
 
 TimeAxis infer_axis(std::span<const TimePoint> times, std::optional<Step> step,
@@ -461,85 +543,18 @@ TimeAxis infer_axis(std::span<const TimePoint> times, std::optional<Step> step,
   if (lines.size() != times.size())
     throw std::invalid_argument("infer_axis: one line number per time");
   if (times.empty()) return TimeAxis(TimeKind::Index, Step{}, 0, 0);
+  const TimeRows rows{.times = times, .file = file, .lines = lines};
+  check_increasing(rows);
   const TimePoint& first = times.front();
-  const TimeKind kind = first.kind;
-  const auto where = [&](std::size_t i) { return line_where(file, lines[i]); };
-  const auto text = [](const TimePoint& t) {
-    return format_time(t.kind, t.value, t.offset_minutes, t.utc_z);
-  };
-
-  // One kind and one offset, strictly increasing.
-  for (std::size_t i = 1; i < times.size(); ++i) {
-    const TimePoint& t = times[i];
-    if (t.kind != kind)
-      throw InputError(where(i), std::string("mixed time formats: ") + kind_name(t.kind) +
-                                     " here, " + kind_name(kind) + " on line " +
-                                     std::to_string(lines[0]));
-    if (t.offset_minutes != first.offset_minutes)
-      throw InputError(where(i), "mixed UTC offsets: " + offset_name(t) + " here, " +
-                                     offset_name(first) + " on line " + std::to_string(lines[0]) +
-                                     " (write all times with one offset)");
-    const TimePoint& previous = times[i - 1];
-    if (t.value == previous.value) throw InputError(where(i), "duplicate time " + text(t));
-    if (t.value < previous.value)
-      throw InputError(where(i), "time " + text(t) + " comes before " + text(previous) +
-                                     " on line " + std::to_string(lines[i - 1]) +
-                                     " (sort the rows by time)");
-  }
-
-  // A given step must fit the kind of times.
   const std::string step_where = file.empty() ? std::string("--step") : std::string(file);
-  if (step) {
-    if (kind == TimeKind::Index && step->unit != Step::Unit::Index)
-      throw InputError(step_where, "step " + step->iso() +
-                                       " does not fit integer times; give a whole number");
-    if (kind != TimeKind::Index && step->unit == Step::Unit::Index)
-      throw InputError(step_where, "step " + step->iso() +
-                                       " does not fit dated times; give an ISO 8601 "
-                                       "duration such as PT1H or P1D");
-    if (kind == TimeKind::Date && step->unit == Step::Unit::Seconds && step->amount % kDay != 0)
-      throw InputError(step_where, "step " + step->iso() +
-                                       " does not fit dates (YYYY-MM-DD); use days, weeks, "
-                                       "months or years");
-  }
-
-  // The step: given; one default for a single row; calendar months when the
-  // dates keep one day of month; otherwise the smallest difference.
+  if (step) check_step_fits(first.kind, *step, step_where);
   AxisStyle style;
   style.utc_z = first.utc_z;
-  Step chosen;
-  const std::optional<int> anchor =
-      kind == TimeKind::Index ? std::nullopt : month_anchor(times);
-  if (step) {
-    chosen = *step;
-    if (chosen.unit == Step::Unit::Months && anchor) style.month_day = *anchor;
-  } else if (times.size() == 1) {
-    chosen = kind == TimeKind::Index ? Step{} : Step{Step::Unit::Seconds, kDay};
-  } else if (anchor) {
-    std::int64_t smallest = std::numeric_limits<std::int64_t>::max();
-    for (std::size_t i = 1; i < times.size(); ++i)
-      smallest = std::min(smallest, month_number(to_civil(times[i].value)) -
-                                        month_number(to_civil(times[i - 1].value)));
-    chosen = Step{Step::Unit::Months, smallest};
-    style.month_day = *anchor;
-  } else {
-    std::int64_t smallest = std::numeric_limits<std::int64_t>::max();
-    for (std::size_t i = 1; i < times.size(); ++i)
-      smallest = std::min(smallest, times[i].value - times[i - 1].value);
-    chosen = Step{kind == TimeKind::Index ? Step::Unit::Index : Step::Unit::Seconds, smallest};
-  }
-
+  const Step chosen = choose_axis_step(times, step, style);
+  const auto where = [&rows](std::size_t i) { return rows.where(i); };
   if (positions != nullptr && step) return place_on_grid(times, chosen, style, where, step_where, *positions);
-  const TimeAxis axis(kind, chosen, first.value, times.size(), first.offset_minutes, style);
-  for (std::size_t i = 1; i < times.size(); ++i) {
-    const std::int64_t expected = axis.at(i);
-    if (times[i].value == expected) continue;
-    const TimePoint want{kind, expected, first.offset_minutes, first.utc_z};
-    throw InputError(where(i), "irregular time step: expected " + text(want) + " after " +
-                                   text(times[i - 1]) + ", found " + text(times[i]) +
-                                   (step ? " (regularize the data first, or check --step)"
-                                         : " (regularize the data first, or give --step)"));
-  }
+  const TimeAxis axis(first.kind, chosen, first.value, times.size(), first.offset_minutes, style);
+  check_regular(axis, rows, step.has_value());
   return axis;
 }
 
