@@ -205,6 +205,44 @@ bool unchanged(const Eigen::MatrixXd& p, const Eigen::MatrixXd& before) {
   return moved <= 1e-13 * largest;
 }
 
+/// After the filter: the regression and diffuse coefficients by generalised
+/// least squares on S = sum V'V/F (columns: the data, k regressors, nd
+/// diffuse starting values), then sigma^2 and the concentrated likelihood;
+/// lik.finite is false where S is singular or the residual sum not positive.
+void conclude(Pass& pass, Eigen::MatrixXd s_full, double sum_log_f, Eigen::Index k, Eigen::Index nd) {
+  Likelihood& lik = pass.lik;
+  lik.effective = lik.observed >= static_cast<std::size_t>(nd) ? lik.observed - static_cast<std::size_t>(nd) : 0;
+  const Eigen::Index nb = k + nd;
+  double quad = s_full(0, 0);
+  double log_det = 0;
+  if (nb > 0) {
+    const Eigen::MatrixXd s = s_full.bottomRightCorner(nb, nb);
+    Eigen::LDLT<Eigen::MatrixXd> ldlt(s);
+    if (ldlt.info() != Eigen::Success || !ldlt.isPositive() ||
+        ldlt.vectorD().minCoeff() <= 1e-12 * std::max(1.0, ldlt.vectorD().maxCoeff())) {
+      lik.finite = false;
+      return;
+    }
+    pass.b = ldlt.solve(s_full.col(0).tail(nb));
+    if (nd > 0) pass.s_inv = s.bottomRightCorner(nd, nd).ldlt().solve(Eigen::MatrixXd::Identity(nd, nd));
+    quad -= s_full.col(0).tail(nb).dot(pass.b);
+    if (nd > 0) {
+      Eigen::LDLT<Eigen::MatrixXd> diffuse(s.bottomRightCorner(nd, nd));
+      log_det = diffuse.vectorD().array().log().sum();
+    }
+  }
+  if (lik.effective == 0 || !(quad > 0) || !std::isfinite(quad)) {
+    lik.finite = false;
+    return;
+  }
+  lik.sigma2 = quad / static_cast<double>(lik.effective);
+  for (Eigen::Index i = 0; i < k; ++i) lik.beta.push_back(pass.b(i));
+  const double ne = static_cast<double>(lik.effective);
+  lik.log_likelihood = -0.5 * (ne * (kLog2Pi + std::log(lik.sigma2) + 1.0) + sum_log_f + log_det);
+  lik.finite = std::isfinite(lik.log_likelihood);
+  pass.s_full = std::move(s_full);
+}
+
 /// Columns: 0 the data; 1..k the regressor; then one per diffuse starting value.
 Pass run(const StateSpace& model, std::span<const double> y, std::span<const double> regressor, bool keep) {
   const std::size_t n = y.size();
@@ -278,37 +316,17 @@ Pass run(const StateSpace& model, std::span<const double> y, std::span<const dou
     if (observed) steady = unchanged(p, p_before);
   }
 
-  lik.effective = lik.observed >= static_cast<std::size_t>(nd) ? lik.observed - static_cast<std::size_t>(nd) : 0;
-  const Eigen::Index nb = k + nd;
-  double quad = s_full(0, 0);
-  double log_det = 0;
-  if (nb > 0) {
-    const Eigen::MatrixXd s = s_full.bottomRightCorner(nb, nb);
-    Eigen::LDLT<Eigen::MatrixXd> ldlt(s);
-    if (ldlt.info() != Eigen::Success || !ldlt.isPositive() ||
-        ldlt.vectorD().minCoeff() <= 1e-12 * std::max(1.0, ldlt.vectorD().maxCoeff())) {
-      lik.finite = false;
-      return pass;
-    }
-    pass.b = ldlt.solve(s_full.col(0).tail(nb));
-    if (nd > 0) pass.s_inv = s.bottomRightCorner(nd, nd).ldlt().solve(Eigen::MatrixXd::Identity(nd, nd));
-    quad -= s_full.col(0).tail(nb).dot(pass.b);
-    if (nd > 0) {
-      Eigen::LDLT<Eigen::MatrixXd> diffuse(s.bottomRightCorner(nd, nd));
-      log_det = diffuse.vectorD().array().log().sum();
-    }
-  }
-  if (lik.effective == 0 || !(quad > 0) || !std::isfinite(quad)) {
-    lik.finite = false;
-    return pass;
-  }
-  lik.sigma2 = quad / static_cast<double>(lik.effective);
-  for (Eigen::Index i = 0; i < k; ++i) lik.beta.push_back(pass.b(i));
-  const double ne = static_cast<double>(lik.effective);
-  lik.log_likelihood = -0.5 * (ne * (kLog2Pi + std::log(lik.sigma2) + 1.0) + sum_log_f + log_det);
-  lik.finite = std::isfinite(lik.log_likelihood);
-  pass.s_full = std::move(s_full);
+  conclude(pass, std::move(s_full), sum_log_f, k, nd);
   return pass;
+}
+
+/// Z' as a vector of the state's size.
+Eigen::VectorXd design_vector(const StateSpace& model) {
+  Eigen::MatrixXd unit = Eigen::MatrixXd::Zero(static_cast<Eigen::Index>(model.dim()), 1);
+  Eigen::RowVectorXd one(1);
+  one(0) = 1;
+  model.add_design_transposed(unit, one);
+  return unit.col(0);
 }
 
 }  // namespace
@@ -330,14 +348,7 @@ Smoothed smooth(const StateSpace& model, std::span<const double> y, std::span<co
   const Eigen::Index nb = cols - 1;
   const Eigen::Index nd = static_cast<Eigen::Index>(model.diff_dim());
 
-  Eigen::VectorXd zvec = Eigen::VectorXd::Zero(m);
-  {
-    Eigen::MatrixXd unit = Eigen::MatrixXd::Zero(m, 1);
-    Eigen::RowVectorXd one(1);
-    one(0) = 1;
-    model.add_design_transposed(unit, one);
-    zvec = unit.col(0);
-  }
+  const Eigen::VectorXd zvec = design_vector(model);
   Smoothed out;
   out.mean.assign(y.begin(), y.end());
   out.variance.assign(n, 0.0);
