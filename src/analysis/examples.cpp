@@ -4,7 +4,6 @@
 #include <cmath>
 #include <vector>
 
-#include "gapmark/json_number.hpp"
 #include "gapmark/error.hpp"
 #include "gapmark/fill/checked_fill.hpp"
 #include "gapmark/interrupted.hpp"
@@ -45,124 +44,130 @@ std::size_t best_window(const Mask& mask, std::size_t width) {
 }
 
 /// ACF r_1..r_L of `values` with the complete series' own gaps left out.
-nlohmann::json acf_json(std::span<const double> truth, std::span<const double> values, std::size_t lags) {
+std::vector<double> acf_of(std::span<const double> truth, std::span<const double> values, std::size_t lags) {
   std::vector<double> x(values.begin(), values.end());
   for (std::size_t i = 0; i < x.size(); ++i)
     if (std::isnan(truth[i])) x[i] = std::nan("");
-  nlohmann::json out = nlohmann::json::array();
   const auto r = stats::sample_autocorrelation(x, lags);
-  for (std::size_t k = 1; k < r.size(); ++k) out.push_back(json_number(r[k]));
-  return out;
+  return r.size() > 1 ? std::vector<double>(r.begin() + 1, r.end()) : std::vector<double>();
 }
 
-nlohmann::json example_for(const ExperimentSpec& spec, const LoadedData& data, const Summary& summary,
-                           std::size_t index, const ExampleOptions& options) {
+/// The summary of the cell (series, scheme, rate); null when there is none.
+const CellGroup* find_group(const Summary& summary, const std::string& series, const std::string& scheme, double rate) {
+  const CellGroup* group = nullptr;
+  for (const auto& g : summary.groups)
+    if (g.series == series && g.scheme == scheme && g.rate == rate) group = &g;
+  return group;
+}
+
+/// The window of `width` points with the most masked points: where it
+/// starts, its times, the truth and the mask in it.
+void place_window(ExampleWindow& ex, const Series& series, const Mask& mask, std::size_t width) {
+  ex.start = best_window(mask, width);
+  ex.length = width;
+  ex.time_first = width ? series.axis.format(ex.start) : "";
+  ex.time_last = width ? series.axis.format(ex.start + width - 1) : "";
+  ex.step = series.axis.step().iso();
+  for (std::size_t i = ex.start; i < ex.start + width; ++i) {
+    ex.truth.push_back(series.values[i]);
+    ex.mask.push_back(mask[i] ? 1 : 0);
+  }
+}
+
+/// A leading method's fill of the example's mask, as in the run: its values
+/// at the window's masked points, or why there are none. Sets `complete`
+/// when every masked point was filled.
+ExampleFill refill(const Bound<FillMethod>& method, const MethodSummary& ms, const FillRequest& request,
+                   const Mask& mask, const ExampleWindow& ex, const ExampleOptions& options,
+                   std::vector<double>& filled) {
+  ExampleFill entry{.method = ms.method, .rank = ms.rank, .status = std::nullopt, .reason = {}, .filled = {}};
+  if (method.entry->name == "external" && !options.allow_external) {
+    entry.reason = "an outside program is not started again without --allow-external";
+    return entry;
+  }
+  CheckedFill fill;
+  try {
+    fill = checked_fill(method, request, mask);
+  } catch (const Interrupted& e) {  // the user stopped an outside program: this window shows no fill
+    fill.failure = e.what();
+  }
+  if (fill.failed()) {
+    entry.status = TrialStatus::Failed;
+    entry.reason = run_failure_reason(fill.failure, fill.need);
+    return entry;
+  }
+  entry.status = fill.unfilled == 0 ? TrialStatus::Ok : TrialStatus::Partial;
+  for (std::size_t i = ex.start; i < ex.start + ex.length; ++i)
+    entry.filled.push_back(mask[i] ? fill.values[i] : std::nan(""));
+  filled = std::move(fill.values);
+  return entry;
+}
+
+/// The spec's bound method labelled `label`; null when there is none.
+const Bound<FillMethod>* find_method(const ExperimentSpec& spec, const std::string& label) {
+  const Bound<FillMethod>* method = nullptr;
+  for (const auto& m : spec.methods)
+    if (m.label == label) method = &m;
+  return method;
+}
+
+ExampleWindow example_for(const ExperimentSpec& spec, const LoadedData& data, const Summary& summary,
+                          std::size_t index, const ExampleOptions& options) {
   const Series& series = data.series[index];
   const auto& plan = spec.schemes.front();
   const Task task{index, 0, 0, 0};
-  const double rate = plan.rates.front();
-  nlohmann::json ex = {{"series", series.label()}, {"scheme", plan.scheme.label}, {"rate", rate},
-                       {"replicate", 0}};
-
-  const CellGroup* group = nullptr;
-  for (const auto& g : summary.groups)
-    if (g.series == series.label() && g.scheme == plan.scheme.label && g.rate == rate) group = &g;
+  ExampleWindow ex;
+  ex.series = series.label();
+  ex.scheme = plan.scheme.label;
+  ex.rate = plan.rates.front();
+  const CellGroup* group = find_group(summary, ex.series, ex.scheme, ex.rate);
   if (group == nullptr) {
-    ex["note"] = "no summary for this cell";
+    ex.note = "no summary for this cell";
     return ex;
   }
-
   // The same mask and fill request as the run's first replicate of this cell.
   const Siblings siblings = task_uses_siblings(spec, task) ? siblings_of(data, index) : Siblings{};
   Mask mask;
   try {
     mask = draw_task_mask(spec, data, task, siblings);
   } catch (const std::exception& e) {
-    ex["note"] = std::string("the scheme could not mask this series: ") + e.what();
+    ex.note = std::string("the scheme could not mask this series: ") + e.what();
     return ex;
   }
   const std::vector<double> holed = apply_mask(series.values, mask);
   const FillRequest fill_request = fill_request_for(spec, series, holed, siblings);
-
-  const std::size_t n = series.values.size();
-  const std::size_t width = std::min(options.window, n);
-  const std::size_t start = best_window(mask, width);
-  const std::size_t lags = acf_lags(spec, series);
-  ex["start"] = start;
-  ex["length"] = width;
-  ex["time_first"] = width ? series.axis.format(start) : "";
-  ex["time_last"] = width ? series.axis.format(start + width - 1) : "";
-  ex["step"] = series.axis.step().iso();
-  nlohmann::json truth = nlohmann::json::array(), shown_mask = nlohmann::json::array();
-  for (std::size_t i = start; i < start + width; ++i) {
-    truth.push_back(json_number(series.values[i]));
-    shown_mask.push_back(static_cast<int>(mask[i]));
-  }
-  ex["truth"] = truth;
-  ex["mask"] = shown_mask;
-
-  nlohmann::json methods = nlohmann::json::array();
-  nlohmann::json acf_methods = nlohmann::json::array();
+  place_window(ex, series, mask, std::min(options.window, series.values.size()));
+  ex.lags = acf_lags(spec, series);
   for (const auto& ms : group->methods) {
-    if (methods.size() >= options.top) break;  // group->methods are in rank order
+    if (ex.methods.size() >= options.top) break;  // group->methods are in rank order
     if (ms.failures == ms.trials) continue;  // never filled this cell
-    const Bound<FillMethod>* method = nullptr;
-    for (const auto& m : spec.methods)
-      if (m.label == ms.method) method = &m;
+    const Bound<FillMethod>* method = find_method(spec, ms.method);
     if (method == nullptr) continue;
-    nlohmann::json entry = {{"method", ms.method}, {"rank", ms.rank}};
-    if (method->entry->name == "external" && !options.allow_external) {
-      entry["status"] = "not run";
-      entry["reason"] = "an outside program is not started again without --allow-external";
-      entry["filled"] = nullptr;
-      methods.push_back(entry);
-      continue;
-    }
-    CheckedFill fill;
-    try {
-      fill = checked_fill(*method, fill_request, mask);
-    } catch (const Interrupted& e) {  // the user stopped an outside program: this window shows no fill
-      fill.failure = e.what();
-    }
-    if (fill.failed()) {
-      entry["status"] = trial_status_name(TrialStatus::Failed);
-      entry["reason"] = run_failure_reason(fill.failure, fill.need);
-      entry["filled"] = nullptr;
-      methods.push_back(entry);
-      continue;
-    }
-    const std::vector<double>& filled = fill.values;
-    const bool complete = fill.unfilled == 0;
-    nlohmann::json values = nlohmann::json::array();
-    for (std::size_t i = start; i < start + width; ++i) values.push_back(mask[i] ? json_number(filled[i]) : nullptr);
-    entry["status"] = trial_status_name(complete ? TrialStatus::Ok : TrialStatus::Partial);
-    entry["filled"] = values;
-    methods.push_back(entry);
-    if (complete) acf_methods.push_back({{"method", ms.method}, {"values", acf_json(series.values, filled, lags)}});
+    std::vector<double> filled;
+    ex.methods.push_back(refill(*method, ms, fill_request, mask, ex, options, filled));
+    if (ex.methods.back().status == TrialStatus::Ok)
+      ex.acf_methods.push_back({ms.method, acf_of(series.values, filled, ex.lags)});
   }
-  ex["methods"] = methods;
-  ex["acf"] = {{"lags", lags}, {"truth", acf_json(series.values, series.values, lags)}, {"methods", acf_methods}};
+  ex.acf_truth = acf_of(series.values, series.values, ex.lags);
   return ex;
 }
 
 }  // namespace
 
-nlohmann::json build_examples(const ExperimentSpec& spec, const LoadedData& data, const Summary& summary,
+ExampleWindows build_examples(const ExperimentSpec& spec, const LoadedData& data, const Summary& summary,
                               const ExampleOptions& options) {
-  std::vector<nlohmann::json> built;
+  ExampleWindows out{.window = options.window, .top = options.top, .series = {}};
   if (!spec.schemes.empty() && !spec.schemes.front().rates.empty()) {
-    built.resize(std::min(data.series.size(), options.max_series));
-    parallel_for(built.size(), options.threads,
-                 [&](std::size_t s) { built[s] = example_for(spec, data, summary, s, options); });
+    out.series.resize(std::min(data.series.size(), options.max_series));
+    parallel_for(out.series.size(), options.threads,
+                 [&](std::size_t s) { out.series[s] = example_for(spec, data, summary, s, options); });
   }
-  nlohmann::json list = nlohmann::json::array();
-  for (auto& example : built) list.push_back(std::move(example));
-  return {{"window", options.window}, {"top", options.top}, {"series", list}};
+  return out;
 }
 
 std::string attach_examples(ResultSet& results, const Summary& summary, const ExperimentSpec& spec,
                             const ExampleOptions& options) {
-  results.examples = nullptr;
+  results.examples.reset();
   LoadedData data;
   try {
     data = load_data(spec);

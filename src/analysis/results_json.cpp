@@ -32,7 +32,7 @@ nlohmann::json results_document(const ResultSet& results, const Summary& summary
           {"verdict", verdict_to_json(summary.verdict)},
           {"warnings", warnings},
           {"timing", timing_to_json(results.timing)}};
-  if (!results.examples.is_null()) out["examples"] = results.examples;
+  if (results.examples) out["examples"] = examples_to_json(*results.examples);
   return out;
 }
 

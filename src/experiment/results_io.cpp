@@ -33,7 +33,7 @@ ResultSet results_from_json(const nlohmann::json& j, const std::string& source) 
       r.warnings.push_back({w.at("code").get<std::string>(), w.at("where").get<std::string>(),
                             w.at("message").get<std::string>(), w.at("hint").get<std::string>()});
     r.timing = timing_from_json(stored, "timing");
-    if (j.contains("examples")) r.examples = j.at("examples");
+    if (j.contains("examples") && !j.at("examples").is_null()) r.examples = examples_from_json(stored, "examples");
   } catch (const nlohmann::json::exception& e) {
     throw InputError(source, std::string("malformed results: ") + e.what());
   }

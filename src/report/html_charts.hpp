@@ -7,6 +7,7 @@
 #include <vector>
 
 #include "gapmark/analysis/summary.hpp"
+#include "gapmark/experiment/example_windows.hpp"
 #include "svg.hpp"
 
 namespace gapmark::charts {
@@ -64,13 +65,13 @@ struct DotChart {
 /// horizontal axis. Empty string when nothing to draw.
 std::string dot_chart(const DotChart& chart);
 
-/// An example window from results' "examples": the truth, the masked
-/// stretches and the fills. `styles[i]` draws example["methods"][i].
-std::string window_chart(const nlohmann::json& example, const std::vector<svg::Style>& styles,
+/// An example window: the truth, the masked stretches and the fills.
+/// `styles[i]` draws example.methods[i].
+std::string window_chart(const ExampleWindow& example, const std::vector<svg::Style>& styles,
                          const std::string& y_label = "value");
 /// Autocorrelation at lags 1..L of the complete series and of each fill;
 /// `styles` as for window_chart (matched by method name).
-std::string acf_chart(const nlohmann::json& example, const std::vector<svg::Style>& styles);
+std::string acf_chart(const ExampleWindow& example, const std::vector<svg::Style>& styles);
 
 /// Methods on a mean-rank axis, one row each, best first; brackets join
 /// methods whose mean ranks differ by less than the critical difference.

@@ -6,6 +6,7 @@
 // mean-rank chart with the critical difference.
 #include <algorithm>
 #include <cmath>
+#include <cstdint>
 #include <map>
 #include <set>
 
@@ -340,33 +341,9 @@ std::string ranked_table(const ResultSet& results, const Summary& summary, const
                "page of the documentation gives each formula.</p></details>";
 }
 
-const nlohmann::json* example_of(const ResultSet& results, const std::string& series) {
-  if (!results.examples.is_object() || !results.examples.contains("series")) return nullptr;
-  for (const auto& e : results.examples["series"])
-    if (e.value("series", std::string()) == series) return &e;
-  return nullptr;
-}
-
-std::string example_section(const nlohmann::json* example, const std::string& units, StyleMap& styles) {
-  std::string out = "<h3>Example window</h3>";
-  if (example == nullptr)
-    return out + "<p class=\"empty\">These results carry no example window for this series.</p>";
-  if (example->contains("note"))
-    return out + "<p class=\"empty\">No example: " + escape(example->value("note", std::string())) + "</p>";
-  std::vector<svg::Style> s;
-  std::vector<std::string> names;
-  std::string failures;
-  for (const auto& m : example->value("methods", nlohmann::json::array())) {
-    names.push_back(m.value("method", std::string()));
-    s.push_back(styles(names.back()));
-    if (m.value("status", std::string()) == "failed")
-      failures += " " + escape(names.back()) + " failed on this replicate: " + escape(m.value("reason", std::string())) + ".";
-    else if (m.value("status", std::string()) == "not run")
-      failures += " " + escape(names.back()) + " is not drawn: " + escape(m.value("reason", std::string())) + ".";
-  }
-  const std::string window = charts::window_chart(*example, s, units.empty() ? "value" : "value (" + units + ")");
-  const std::string acf = charts::acf_chart(*example, s);
-  out += "<div class=\"legend\"><span><svg class=\"swatch\" viewBox=\"0 0 34 12\" width=\"34\" height=\"12\" "
+/// The legend above the example charts: the truth, the hidden stretches and each method.
+std::string example_legend(const std::vector<std::string>& names, const std::vector<svg::Style>& s) {
+  std::string out = "<div class=\"legend\"><span><svg class=\"swatch\" viewBox=\"0 0 34 12\" width=\"34\" height=\"12\" "
          "aria-hidden=\"true\"><line x1=\"1\" y1=\"6\" x2=\"33\" y2=\"6\" stroke=\"" + std::string(svg::kInk) +
          "\" stroke-width=\"1.3\"/><circle cx=\"17\" cy=\"6\" r=\"2.6\" fill=\"#fff\" stroke=\"" + svg::kInk +
          "\"/></svg>true values (rings: hidden)</span><span><svg class=\"swatch\" viewBox=\"0 0 34 12\" width=\"34\" "
@@ -374,19 +351,43 @@ std::string example_section(const nlohmann::json* example, const std::string& un
          svg::kShade + "\"/></svg>hidden stretch</span>";
   for (std::size_t i = 0; i < names.size(); ++i)
     out += "<span>" + svg::legend_swatch(s[i]) + escape(names[i]) + "</span>";
-  out += "</div>";
-  out += "<div class=\"figure\">" + (window.empty() ? "<p class=\"empty\">nothing to draw</p>" : window) +
-         "<p class=\"note\">" + escape(example->value("scheme", std::string())) + " at " +
-         percent(example->value("rate", 0.0)) + ", replicate " + std::to_string(example->value("replicate", 0)) +
-         " (the mask that gapmark mask --replicate " + std::to_string(example->value("replicate", 0)) +
-         " draws with the run's seed): points " +
-         std::to_string(example->value("start", 0)) + " to " +
-         std::to_string(example->value("start", 0) + example->value("length", 0) - 1) + " (" +
-         escape(example->value("time_first", std::string())) + " to " +
-         escape(example->value("time_last", std::string())) + ", step " +
-         escape(example->value("step", std::string())) +
+  return out + "</div>";
+}
+
+/// What the window shows: the condition, the mask, the points and times, and
+/// the methods that failed or were not run.
+std::string example_note(const ExampleWindow& example, const std::string& failures) {
+  const std::string replicate = std::to_string(example.replicate);
+  const auto last = static_cast<std::int64_t>(example.start + example.length) - 1;
+  return "<p class=\"note\">" + escape(example.scheme) + " at " + percent(example.rate) + ", replicate " + replicate +
+         " (the mask that gapmark mask --replicate " + replicate + " draws with the run's seed): points " +
+         std::to_string(example.start) + " to " + std::to_string(last) + " (" + escape(example.time_first) + " to " +
+         escape(example.time_last) + ", step " + escape(example.step) +
          "), chosen as the stretch with the most hidden points. The leading methods of that condition refilled the "
-         "same mask as in the run." + failures + "</p></div>";
+         "same mask as in the run." + failures + "</p>";
+}
+
+std::string example_section(const ExampleWindow* example, const std::string& units, StyleMap& styles) {
+  std::string out = "<h3>Example window</h3>";
+  if (example == nullptr)
+    return out + "<p class=\"empty\">These results carry no example window for this series.</p>";
+  if (!example->note.empty()) return out + "<p class=\"empty\">No example: " + escape(example->note) + "</p>";
+  std::vector<svg::Style> s;
+  std::vector<std::string> names;
+  std::string failures;
+  for (const auto& m : example->methods) {
+    names.push_back(m.method);
+    s.push_back(styles(names.back()));
+    if (!m.status)
+      failures += " " + escape(names.back()) + " is not drawn: " + escape(m.reason) + ".";
+    else if (*m.status == TrialStatus::Failed)
+      failures += " " + escape(names.back()) + " failed on this replicate: " + escape(m.reason) + ".";
+  }
+  const std::string window = charts::window_chart(*example, s, units.empty() ? "value" : "value (" + units + ")");
+  const std::string acf = charts::acf_chart(*example, s);
+  out += example_legend(names, s);
+  out += "<div class=\"figure\">" + (window.empty() ? "<p class=\"empty\">nothing to draw</p>" : window) +
+         example_note(*example, failures) + "</div>";
   if (!acf.empty())
     out += "<div class=\"figure\">" + acf +
            "<p class=\"note\">Autocorrelation of the whole series: grey bars for the complete series, lines for the "
@@ -433,7 +434,8 @@ std::string series_section(const ResultSet& results, const Summary& summary, con
   out += recommendation_card(summary, label);
   out += "<h3>Leading methods</h3>" + legend(shown, styles);
   out += rate_charts(results, groups, shown, styles);
-  out += example_section(example_of(results, label), series_units(results, label), styles);
+  const ExampleWindow* example = results.examples ? results.examples->find(label) : nullptr;
+  out += example_section(example, series_units(results, label), styles);
   out += "<h3>Ranked tables</h3>";
   for (std::size_t i = 0; i < groups.size(); ++i) {
     const auto* g = groups[i];

@@ -3,6 +3,7 @@
 // and the autocorrelation of the complete series beside that of each fill.
 #include <algorithm>
 #include <cmath>
+#include <cstdint>
 
 #include "html_charts.hpp"
 
@@ -11,13 +12,6 @@ namespace {
 
 using svg::coord;
 
-std::vector<double> numbers(const nlohmann::json& array) {
-  std::vector<double> out;
-  if (!array.is_array()) return out;
-  for (const auto& v : array) out.push_back(v.is_number() ? v.get<double>() : std::nan(""));
-  return out;
-}
-
 void widen(double& lo, double& hi, const std::vector<double>& xs) {
   for (double x : xs)
     if (std::isfinite(x)) lo = std::min(lo, x), hi = std::max(hi, x);
@@ -25,7 +19,7 @@ void widen(double& lo, double& hi, const std::vector<double>& xs) {
 
 // Calls visit(i, j) for each masked stretch [i, j) of the window, in order.
 template <class Visit>
-void for_each_masked_run(const std::vector<double>& mask_values, Visit visit) {
+void for_each_masked_run(const std::vector<std::uint8_t>& mask_values, Visit visit) {
   const std::size_t w = mask_values.size();
   for (std::size_t i = 0; i < w;) {
     if (mask_values[i] != 1) {
@@ -39,24 +33,63 @@ void for_each_masked_run(const std::vector<double>& mask_values, Visit visit) {
   }
 }
 
+/// The window's points on the chart: x of every point, y of the truth (NaN where missing).
+struct WindowPoints {
+  std::vector<double> xs, ys;
+};
+
+/// The masked stretches as shaded bands, drawn first, behind everything.
+std::string masked_bands(const Plot& plot, const ExampleWindow& example, double start) {
+  std::string out;
+  for_each_masked_run(example.mask, [&](std::size_t i, std::size_t j) {
+    const double a = plot.x(start + static_cast<double>(i) - 0.5), b = plot.x(start + static_cast<double>(j) - 0.5);
+    out += "<rect x=\"" + coord(a) + "\" y=\"" + coord(plot.y1()) + "\" width=\"" + coord(b - a) + "\" height=\"" +
+           coord(plot.y0() - plot.y1()) + "\" fill=\"" + svg::kShade + "\"/>";
+  });
+  return out;
+}
+
+/// The true values as a line, the hidden ones as rings.
+std::string truth_line(const ExampleWindow& example, const WindowPoints& p) {
+  std::string out = "<g class=\"truth\"><title>true values</title>" +
+                    svg::polyline(p.xs, p.ys, {svg::kInk, "", "circle"}, 1.3);
+  for (std::size_t i = 0; i < p.xs.size(); ++i)
+    if (example.mask[i] == 1 && std::isfinite(p.ys[i]))
+      out += "<circle cx=\"" + coord(p.xs[i]) + "\" cy=\"" + coord(p.ys[i]) + "\" r=\"2.6\" fill=\"#fff\" stroke=\"" +
+             svg::kInk + "\" stroke-width=\"1.2\"/>";
+  return out + "</g>";
+}
+
+/// One method's fill over each masked stretch, joined to the observed neighbours.
+std::string fill_line(const Plot& plot, const ExampleWindow& example, const WindowPoints& p,
+                      const std::vector<double>& fill, const std::string& name, const svg::Style& s) {
+  const std::size_t w = p.xs.size();
+  std::string out = "<g class=\"fill\"><title>" + svg::escape(name) + "</title>";
+  for_each_masked_run(example.mask, [&](std::size_t i, std::size_t j) {
+    std::vector<double> px, py;
+    if (i > 0 && std::isfinite(example.truth[i - 1])) px.push_back(p.xs[i - 1]), py.push_back(p.ys[i - 1]);
+    for (std::size_t k = i; k < j; ++k) {
+      px.push_back(p.xs[k]);
+      py.push_back(std::isfinite(fill[k]) ? plot.y(fill[k]) : std::nan(""));
+    }
+    if (j < w && std::isfinite(example.truth[j])) px.push_back(p.xs[j]), py.push_back(p.ys[j]);
+    out += svg::polyline(px, py, s, 1.8);
+    for (std::size_t k = i; k < j; ++k)
+      if (std::isfinite(fill[k])) out += svg::marker(s, p.xs[k], plot.y(fill[k]), 2.4);
+  });
+  return out + "</g>";
+}
+
 }  // namespace
 
-std::string window_chart(const nlohmann::json& example, const std::vector<svg::Style>& styles,
+std::string window_chart(const ExampleWindow& example, const std::vector<svg::Style>& styles,
                          const std::string& y_label) {
-  const auto truth = numbers(example.value("truth", nlohmann::json::array()));
-  const auto mask_values = numbers(example.value("mask", nlohmann::json::array()));
-  const std::size_t w = truth.size();
-  if (w < 2 || mask_values.size() != w) return "";
-  const double start = example.value("start", 0.0);
-  std::vector<std::vector<double>> fills;
-  std::vector<std::string> names;
-  for (const auto& m : example.value("methods", nlohmann::json::array())) {
-    fills.push_back(numbers(m.value("filled", nlohmann::json::array())));
-    names.push_back(m.value("method", std::string()));
-  }
+  const std::size_t w = example.truth.size();
+  if (w < 2 || example.mask.size() != w) return "";
+  const auto start = static_cast<double>(example.start);
   double lo = HUGE_VAL, hi = -HUGE_VAL;
-  widen(lo, hi, truth);
-  for (const auto& f : fills) widen(lo, hi, f);
+  widen(lo, hi, example.truth);
+  for (const auto& m : example.methods) widen(lo, hi, m.filled);
   if (lo > hi) return "";
 
   Plot plot;
@@ -65,63 +98,36 @@ std::string window_chart(const nlohmann::json& example, const std::vector<svg::S
   const auto y_ticks = fit_y(plot, lo, hi);
   const auto x_ticks = svg::nice_ticks(start, start + static_cast<double>(w) - 1, 6);
   std::string out = open_svg(plot, "Example window: true values, hidden points and fills");
-  // Masked stretches first, behind everything.
-  for_each_masked_run(mask_values, [&](std::size_t i, std::size_t j) {
-    const double a = plot.x(start + static_cast<double>(i) - 0.5), b = plot.x(start + static_cast<double>(j) - 0.5);
-    out += "<rect x=\"" + coord(a) + "\" y=\"" + coord(plot.y1()) + "\" width=\"" + coord(b - a) + "\" height=\"" +
-           coord(plot.y0() - plot.y1()) + "\" fill=\"" + svg::kShade + "\"/>";
-  });
+  out += masked_bands(plot, example, start);
   out += axes(plot, x_ticks, {}, y_ticks, "position in the series", y_label);
-  std::vector<double> xs(w), ys(w);
+  WindowPoints points{std::vector<double>(w), std::vector<double>(w)};
   for (std::size_t i = 0; i < w; ++i) {
-    xs[i] = plot.x(start + static_cast<double>(i));
-    ys[i] = std::isfinite(truth[i]) ? plot.y(truth[i]) : std::nan("");
+    points.xs[i] = plot.x(start + static_cast<double>(i));
+    points.ys[i] = std::isfinite(example.truth[i]) ? plot.y(example.truth[i]) : std::nan("");
   }
-  out += "<g class=\"truth\"><title>true values</title>" + svg::polyline(xs, ys, {svg::kInk, "", "circle"}, 1.3);
-  for (std::size_t i = 0; i < w; ++i)
-    if (mask_values[i] == 1 && std::isfinite(ys[i]))
-      out += "<circle cx=\"" + coord(xs[i]) + "\" cy=\"" + coord(ys[i]) + "\" r=\"2.6\" fill=\"#fff\" stroke=\"" +
-             svg::kInk + "\" stroke-width=\"1.2\"/>";
-  out += "</g>";
-  // Each fill over each masked stretch, joined to the observed neighbours.
-  for (std::size_t m = 0; m < fills.size(); ++m) {
-    if (fills[m].size() != w) continue;
+  out += truth_line(example, points);
+  for (std::size_t m = 0; m < example.methods.size(); ++m) {
+    if (example.methods[m].filled.size() != w) continue;
     const svg::Style s = m < styles.size() ? styles[m] : svg::style(m);
-    out += "<g class=\"fill\"><title>" + svg::escape(names[m]) + "</title>";
-    for_each_masked_run(mask_values, [&](std::size_t i, std::size_t j) {
-      std::vector<double> px, py;
-      if (i > 0 && std::isfinite(truth[i - 1])) px.push_back(xs[i - 1]), py.push_back(ys[i - 1]);
-      for (std::size_t k = i; k < j; ++k) {
-        px.push_back(xs[k]);
-        py.push_back(std::isfinite(fills[m][k]) ? plot.y(fills[m][k]) : std::nan(""));
-      }
-      if (j < w && std::isfinite(truth[j])) px.push_back(xs[j]), py.push_back(ys[j]);
-      out += svg::polyline(px, py, s, 1.8);
-      for (std::size_t k = i; k < j; ++k)
-        if (std::isfinite(fills[m][k])) out += svg::marker(s, xs[k], plot.y(fills[m][k]), 2.4);
-    });
-    out += "</g>";
+    out += fill_line(plot, example, points, example.methods[m].filled, example.methods[m].method, s);
   }
   out += "</svg>";
   return out;
 }
 
-std::string acf_chart(const nlohmann::json& example, const std::vector<svg::Style>& styles) {
-  if (!example.contains("acf")) return "";
-  const auto& acf = example["acf"];
-  const auto truth = numbers(acf.value("truth", nlohmann::json::array()));
+std::string acf_chart(const ExampleWindow& example, const std::vector<svg::Style>& styles) {
+  if (!example.note.empty()) return "";
+  const auto& truth = example.acf_truth;
   const std::size_t lags = truth.size();
   if (lags < 2) return "";
   double lo = 0, hi = 0;
   widen(lo, hi, truth);
   std::vector<std::pair<std::vector<double>, svg::Style>> lines;
-  const auto methods = example.value("methods", nlohmann::json::array());
-  for (const auto& a : acf.value("methods", nlohmann::json::array())) {
-    const std::string name = a.value("method", std::string());
+  for (const auto& a : example.acf_methods) {
     svg::Style s = svg::style(svg::kStyles);
-    for (std::size_t m = 0; m < methods.size() && m < styles.size(); ++m)
-      if (methods[m].value("method", std::string()) == name) s = styles[m];
-    lines.emplace_back(numbers(a.value("values", nlohmann::json::array())), s);
+    for (std::size_t m = 0; m < example.methods.size() && m < styles.size(); ++m)
+      if (example.methods[m].method == a.method) s = styles[m];
+    lines.emplace_back(a.values, s);
     widen(lo, hi, lines.back().first);
   }
   Plot plot;

@@ -1,9 +1,10 @@
 // The typed parts of a results file (the run's context, the series, the
-// timing) written and read back: the same values and the same JSON, members
+// timing, the example windows) written and read back: the same values and the same JSON, members
 // that are optional stay absent, and a bad field in a file from someone else
 // is one line naming the file and the field's JSON pointer.
 #include <doctest/doctest.h>
 
+#include <cmath>
 #include <cstdint>
 #include <limits>
 #include <string>
@@ -161,4 +162,93 @@ TEST_CASE("a checkpoint header's frame is read with the same checks, naming the 
   } catch (const InputError& e) {
     CHECK(std::string(e.what()).rfind("trials.jsonl:1: /frame/context/holdout: ", 0) == 0);
   }
+}
+
+namespace {
+
+/// Example windows with every kind of entry: a window with a complete, a
+/// partial, a failed and a not-run fill, and a series with a note instead.
+ExampleWindows small_examples() {
+  const double nan = std::nan("");
+  ExampleWindow w;
+  w.series = "flow";
+  w.scheme = "random";
+  w.rate = 0.25;
+  w.start = 4;
+  w.length = 3;
+  w.time_first = "2031-01-05T04:00";
+  w.time_last = "2031-01-05T06:00";
+  w.step = "PT1H";
+  w.truth = {1.5, nan, 2.5};
+  w.mask = {0, 0, 1};
+  w.methods = {{.method = "linear", .rank = 1, .status = TrialStatus::Ok, .reason = {}, .filled = {nan, nan, 2.0}},
+               {.method = "mean", .rank = 2, .status = TrialStatus::Partial, .reason = {}, .filled = {nan, nan, nan}},
+               {.method = "arima", .rank = 3, .status = TrialStatus::Failed, .reason = "no fit", .filled = {}},
+               {.method = "external", .rank = 4, .status = std::nullopt, .reason = "not started", .filled = {}}};
+  w.lags = 2;
+  w.acf_truth = {0.5, nan};
+  w.acf_methods = {{"linear", {0.4, 0.1}}};
+  ExampleWindow noted;
+  noted.series = "level";
+  noted.scheme = "random";
+  noted.rate = 0.25;
+  noted.note = "no summary for this cell";
+  return {.window = 3, .top = 4, .series = {w, noted}};
+}
+
+}  // namespace
+
+TEST_CASE("example windows read back as written and write the same JSON again") {
+  ResultSet r = small_results();
+  r.examples = small_examples();
+  const json j = stored(r);
+  const json& ex = j.at("examples").at("series");
+  CHECK(ex.at(0).at("methods").at(0).at("status") == "ok");
+  CHECK_FALSE(ex.at(0).at("methods").at(0).contains("reason"));
+  CHECK(ex.at(0).at("methods").at(2).at("filled").is_null());
+  CHECK(ex.at(0).at("methods").at(3).at("status") == "not run");
+  CHECK(ex.at(0).at("mask").dump() == "[0,0,1]");
+  CHECK(ex.at(1).at("note") == "no summary for this cell");
+  CHECK_FALSE(ex.at(1).contains("truth"));
+  const ResultSet back = results_from_json(json::parse(j.dump()), "round trip");
+  REQUIRE(back.examples.has_value());
+  REQUIRE(back.examples->series.size() == 2);
+  const ExampleWindow& w = back.examples->series[0];
+  CHECK(w.methods[1].status == TrialStatus::Partial);
+  CHECK_FALSE(w.methods[3].status.has_value());
+  CHECK(w.methods[3].reason == "not started");
+  CHECK(std::isnan(w.truth[1]));
+  CHECK(back.examples->find("level")->note == "no summary for this cell");
+  CHECK(back.examples->find("nowhere") == nullptr);
+  CHECK(stored(back).dump(1) == j.dump(1));
+  r.examples.reset();  // none made: no "examples" member at all
+  CHECK_FALSE(stored(r).contains("examples"));
+  CHECK_FALSE(results_from_json(stored(r), "none").examples.has_value());
+}
+
+TEST_CASE("a bad example window field is an input error naming the file and its JSON pointer") {
+  ResultSet r = small_results();
+  r.examples = small_examples();
+  const json good = stored(r);
+  json j = good;
+  j["examples"]["series"][0].erase("truth");
+  check_names(read_error(j), "/examples/series/0/truth");
+  j = good;
+  j["examples"]["series"][0]["mask"][1] = 2;
+  check_names(read_error(j), "/examples/series/0/mask");
+  j = good;
+  j["examples"]["series"][0]["methods"][0]["status"] = "fine";
+  check_names(read_error(j), "/examples/series/0/methods/0/status");
+  j = good;
+  j["examples"]["series"][0]["methods"][1]["filled"] = json::array({1.0});
+  check_names(read_error(j), "/examples/series/0/methods/1/filled");
+  j = good;
+  j["examples"]["series"][0]["acf"]["methods"][0].erase("values");
+  check_names(read_error(j), "/examples/series/0/acf/methods/0/values");
+  j = good;
+  j["examples"]["series"][0]["length"] = 4;  // the truth holds 3 values
+  check_names(read_error(j), "/examples/series/0/truth");
+  j = good;
+  j["examples"]["series"][1]["rate"] = "a quarter";
+  check_names(read_error(j), "/examples/series/1/rate");
 }

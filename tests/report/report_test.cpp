@@ -62,32 +62,32 @@ TEST_CASE("examples re-create the run's mask and fills: their RMSE equals the re
   // A window wider than the series keeps every point, so the RMSE over the
   // window is the RMSE of the whole trial.
   const auto examples = build_examples(run.spec, run.data, run.summary, {.window = 100000, .top = 3});
-  REQUIRE(examples["series"].size() == run.data.series.size());
+  REQUIRE(examples.series.size() == run.data.series.size());
   const std::size_t rmse_col = run.results.column_index("rmse");
-  for (const auto& ex : examples["series"]) {
-    INFO(ex["series"].get<std::string>());
-    CHECK(ex["replicate"] == 0);
-    CHECK(ex["scheme"] == run.spec.schemes[0].scheme.label);
-    REQUIRE(ex["methods"].size() == 3);
-    const auto& truth = ex["truth"];
-    const auto& mask = ex["mask"];
-    REQUIRE(truth.size() == run.data.series[0].values.size());
+  for (const auto& ex : examples.series) {
+    INFO(ex.series);
+    CHECK(ex.note.empty());
+    CHECK(ex.replicate == 0);
+    CHECK(ex.scheme == run.spec.schemes[0].scheme.label);
+    REQUIRE(ex.methods.size() == 3);
+    REQUIRE(ex.truth.size() == run.data.series[0].values.size());
+    REQUIRE(ex.mask.size() == ex.truth.size());
     std::size_t masked = 0;
-    for (const auto& m : mask) masked += m.get<int>();
-    for (const auto& m : ex["methods"]) {
-      const std::string method = m["method"];
+    for (auto m : ex.mask) masked += m;
+    for (const auto& m : ex.methods) {
+      REQUIRE(m.filled.size() == ex.truth.size());
       double sq = 0;
       std::size_t n = 0;
-      for (std::size_t i = 0; i < truth.size(); ++i)
-        if (mask[i] == 1) {
-          const double e = m["filled"][i].get<double>() - truth[i].get<double>();
+      for (std::size_t i = 0; i < ex.truth.size(); ++i)
+        if (ex.mask[i] == 1) {
+          const double e = m.filled[i] - ex.truth[i];
           sq += e * e;
           ++n;
         }
       const TrialRecord* rec = nullptr;
       for (const auto& t : run.results.trials)
-        if (t.series == ex["series"] && t.scheme == ex["scheme"] && t.rate == ex["rate"].get<double>() &&
-            t.replicate == 0 && t.method == method)
+        if (t.series == ex.series && t.scheme == ex.scheme && t.rate == ex.rate && t.replicate == 0 &&
+            t.method == m.method)
           rec = &t;
       REQUIRE(rec != nullptr);
       CHECK(rec->masked == masked);
@@ -95,23 +95,24 @@ TEST_CASE("examples re-create the run's mask and fills: their RMSE equals the re
     }
     // The methods shown are the leading ones of that cell, in rank order.
     for (const auto& g : run.summary.groups)
-      if (g.series == ex["series"] && g.scheme == ex["scheme"] && g.rate == ex["rate"].get<double>())
-        for (std::size_t k = 0; k < 3; ++k) CHECK(ex["methods"][k]["method"] == g.methods[k].method);
-    CHECK(ex["acf"]["lags"] == 48);  // twice the period of 24
-    CHECK(ex["acf"]["truth"].size() == 48);
+      if (g.series == ex.series && g.scheme == ex.scheme && g.rate == ex.rate)
+        for (std::size_t k = 0; k < 3; ++k) CHECK(ex.methods[k].method == g.methods[k].method);
+    CHECK(ex.lags == 48);  // twice the period of 24
+    CHECK(ex.acf_truth.size() == 48);
   }
 }
 
 TEST_CASE("the default window keeps 200 points around the most hidden points") {
   const Run& run = regression_run();
   const auto examples = build_examples(run.spec, run.data, run.summary);
-  for (const auto& ex : examples["series"]) {
-    CHECK(ex["length"] == 200);
-    CHECK(ex["truth"].size() == 200);
-    CHECK(ex["start"].get<std::size_t>() + 200 <= run.data.series[0].values.size());
+  for (const auto& ex : examples.series) {
+    CHECK(ex.length == 200);
+    CHECK(ex.truth.size() == 200);
+    CHECK(ex.start + 200 <= run.data.series[0].values.size());
   }
   // Deterministic: the same inputs give the same bytes.
-  CHECK(build_examples(run.spec, run.data, run.summary).dump() == examples.dump());
+  CHECK(examples_to_json(build_examples(run.spec, run.data, run.summary)).dump() ==
+        examples_to_json(examples).dump());
 }
 
 TEST_CASE("report.html is self-contained and readable without the JSON") {
@@ -169,7 +170,7 @@ TEST_CASE("report.html is self-contained and readable without the JSON") {
 
 TEST_CASE("report.html without examples or across-series statistics still renders and says so") {
   ResultSet one = regression_run().results;
-  one.examples = nullptr;  // as when results are read from a file written without them
+  one.examples.reset();  // as when results are read from a file written without them
   std::erase_if(one.trials, [](const TrialRecord& t) {
     return t.series != "chamber_humidity_pct" || t.scheme != "random" || t.rate != 0.1;
   });

@@ -205,7 +205,8 @@ TEST_CASE("results.json written piece by piece equals the reporter's text") {
                          "spec.json", fx.root);
   ResultSet results = run_experiment(spec, options);
   results.warnings.push_back({"test-warning", "here", "a message", "a hint"});
-  results.examples = {{"window", 10}, {"series", nlohmann::json::array({{{"a", 1}}})}};
+  results.examples = ExampleWindows{.window = 10, .top = 1, .series = {ExampleWindow{}}};
+  results.examples->series[0].note = "a note";
   const Summary summary = summarize(results);
   std::ostringstream streamed;
   write_results_json(streamed, results, summary);

@@ -6,14 +6,7 @@
 // and each fill, plus the autocorrelation of the complete series and of each
 // fill. Reporters draw these; they cannot recompute fills themselves.
 //
-// Layout (results.json "examples"):
-//   { "window": 200, "top": 3,
-//     "series": [ { "series", "scheme", "rate", "replicate",
-//                   "start", "length", "time_first", "time_last", "step",
-//                   "truth": [...|null], "mask": [0|1 ...],
-//                   "methods": [ {"method", "rank", "status", "reason",
-//                                 "filled": [value at masked points, null elsewhere]} ],
-//                   "acf": {"lags", "truth": [r_1..r_L], "methods": [{"method", "values"}]} } ] }
+// Layout: experiment/example_windows.hpp.
 #include <cstddef>
 #include <string>
 #include <nlohmann/json.hpp>
@@ -35,17 +28,17 @@ struct ExampleOptions {
   bool allow_external = false;
 };
 
-/// Builds the "examples" block. Deterministic: same spec, data and summary,
+/// Builds the example windows. Deterministic: same spec, data and summary,
 /// same bytes. A method that fails on the example task is listed with its
 /// reason and no fill.
-nlohmann::json build_examples(const ExperimentSpec& spec, const LoadedData& data, const Summary& summary,
+ExampleWindows build_examples(const ExperimentSpec& spec, const LoadedData& data, const Summary& summary,
                               const ExampleOptions& options = {});
 
 /// Reloads the spec's data, checks that it is the data the run used (the
 /// SHA-256 of each input in results' context) and sets results.examples
 /// from `summary` (the results' own). Returns an empty string, or why no
 /// examples could be made (the data changed or is gone); results.examples
-/// is then left null.
+/// is then left empty.
 std::string attach_examples(ResultSet& results, const Summary& summary, const ExperimentSpec& spec,
                             const ExampleOptions& options = {});
 

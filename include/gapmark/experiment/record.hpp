@@ -5,13 +5,16 @@
 // recompute a metric.
 #include <cstddef>
 #include <nlohmann/json.hpp>
+#include <optional>
 #include <string>
 #include <vector>
 
+#include "gapmark/experiment/example_windows.hpp"
 #include "gapmark/experiment/record_checks.hpp"
 #include "gapmark/experiment/run_context.hpp"
 #include "gapmark/experiment/run_timing.hpp"
 #include "gapmark/experiment/series_description.hpp"
+#include "gapmark/experiment/trial_status.hpp"
 #include "gapmark/fill/model_fit.hpp"
 #include "gapmark/score/metric.hpp"
 
@@ -23,21 +26,6 @@ inline constexpr int kResultsSchemaVersion = 1;
 /// metric is within 5% of the best's counts as equally good (see
 /// docs/statistics.md for why 5%).
 inline constexpr double kDefaultEquivalence = 0.05;
-
-/// How a trial ended. Written to checkpoints and results.json as the strings
-/// of trial_status_name ("ok", "partial", "failed", "mask-failed").
-enum class TrialStatus {
-  Ok,          ///< every masked point filled and scored
-  Partial,     ///< some masked points left unfilled (scored on the rest; ranked as a failure)
-  Failed,      ///< the method failed, or left every masked point unfilled
-  MaskFailed,  ///< the scheme could not mask the series, or hid no point: nothing was tested
-};
-
-/// The status's string in checkpoints and results.json.
-const char* trial_status_name(TrialStatus status);
-
-/// The status named by `text`; InputError(where, ...) on anything else.
-TrialStatus parse_trial_status(const std::string& text, const std::string& where);
 
 struct TrialRecord {
   std::string series;     ///< series label
@@ -76,7 +64,7 @@ struct ResultSet {
   double alpha = 0.05;
   double equivalence = kDefaultEquivalence;  ///< relative margin on the ranking metric
   RunTiming timing;                    ///< wall-clock facts; comparisons ignore it
-  nlohmann::json examples;             ///< optional example windows (analysis/examples.hpp); null = none
+  std::optional<ExampleWindows> examples;  ///< example windows for the reports (analysis/examples.hpp); none = not made
 
   std::size_t column_index(const std::string& name) const;  ///< InputError if absent
 };
