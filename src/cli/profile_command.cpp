@@ -5,6 +5,7 @@
 
 #include "commands.hpp"
 #include "output_rules.hpp"
+#include "table_options.hpp"
 #include "gapmark/data/completeness_svg.hpp"
 #include "gapmark/data/profile.hpp"
 
@@ -37,11 +38,7 @@ void add_profile(CLI::App& app, Action& action) {
         check_output_file(o->svg, o->force);
         check_file_is_no_input(o->svg, {o->input});
       }
-      RawReadOptions read;
-      read.time_column = o->time_column;
-      read.group_columns = split_names(o->group);
-      read.value_columns = split_names(o->columns);
-      const RawData raw = read_raw(o->input, read);
+      const RawData raw = read_raw(o->input, raw_read_options(o->time_column, o->group, o->columns));
       data::ProfileOptions options;
       if (!o->step.empty()) options.step = Step::parse(o->step, "--step");
       options.period = o->period;

@@ -6,6 +6,7 @@
 
 #include "commands.hpp"
 #include "output_rules.hpp"
+#include "table_options.hpp"
 #include "gapmark/data/regularize.hpp"
 #include "gapmark/data/regularize_report.hpp"
 #include "gapmark/error.hpp"
@@ -66,10 +67,7 @@ void add_regularize(CLI::App& app, Action& action) {
     action = [o] {
       check_output_file(o->out, o->force);
       check_file_is_no_input(o->out, {o->input});
-      RawReadOptions read;
-      read.time_column = o->time_column;
-      read.group_columns = split_names(o->group);
-      read.value_columns = split_names(o->columns);
+      RawReadOptions read = raw_read_options(o->time_column, o->group, o->columns);
       if (!o->utc_offset.empty()) read.utc_offset_minutes = parse_utc_offset(o->utc_offset, "--utc-offset");
       const RawData raw = read_raw(o->input, read);
 

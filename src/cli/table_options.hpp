@@ -16,6 +16,17 @@
 
 namespace gapmark::cli {
 
+/// How to read a raw table, from the --time-column, --group and --column
+/// options of `profile` and `regularize`.
+inline RawReadOptions raw_read_options(const std::string& time_column, const std::vector<std::string>& group,
+                                       const std::vector<std::string>& columns) {
+  RawReadOptions read;
+  read.time_column = time_column;
+  read.group_columns = split_names(group);
+  read.value_columns = split_names(columns);
+  return read;
+}
+
 struct TableOptions {
   std::string input;
   std::vector<std::string> columns;
