@@ -138,12 +138,14 @@ GroupData collect(CellGroup& g, const std::vector<const TrialRecord*>& trials, c
     d.ranks.push_back(stats::average_ranks_within(keys, g.noise));
     for (std::size_t m = 0; m < k; ++m) rank_sum[m] += d.ranks.back()[m];
   }
+  // One resampling stream per condition, shared by every method and metric:
+  // the same replicates are drawn for each, so methods with the same values
+  // get the same interval.
+  const std::uint64_t stream =
+      stable_hash("bootstrap|" + g.series + "|" + g.scheme + "|" + format_double(g.rate));
   for (std::size_t m = 0; m < k; ++m) {
     for (std::size_t c = 0; c < results.columns.size(); ++c)
-      d.methods[m].metrics.push_back(
-          describe(values[m][c], level,
-                   stable_hash("bootstrap|" + g.series + "|" + g.scheme + "|" + format_double(g.rate) + "|" +
-                               methods[m] + "|" + results.columns[c].name)));
+      d.methods[m].metrics.push_back(describe(values[m][c], level, stream));
     d.methods[m].mean_rank = reps ? rank_sum[m] / static_cast<double>(reps) : kNaN;
     d.methods[m].p_vs_best = d.methods[m].p_equivalent = d.methods[m].relative_difference = kNaN;
   }

@@ -203,3 +203,26 @@ TEST_CASE("the spec's equivalence margin reaches the standing") {
   rs.equivalence = 0.01;
   CHECK(summarize(rs).groups.at(0).methods[1].standing == Standing::Worse);
 }
+
+TEST_CASE("methods with the same values get the same bootstrap interval: one resampling stream per condition") {
+  ResultSet rs = rmse_results();
+  for (int r = 0; r < 10; ++r) {
+    const double x = 0.4 + 0.037 * ((r * 7) % 10);  // spread, so resampling moves the mean
+    rs.trials.push_back(trial("linear", r, x));
+    rs.trials.push_back(trial("copy-of-linear", r, x));
+    rs.trials.push_back(trial("scaled", r, 2 * x));
+  }
+  const auto s = summarize(rs);
+  const auto& g = s.groups.at(0);
+  const auto& a = method(g, "linear").metrics.at(0);
+  const auto& b = method(g, "copy-of-linear").metrics.at(0);
+  const auto& c = method(g, "scaled").metrics.at(0);
+  REQUIRE(a.ci_low < a.mean);
+  REQUIRE(a.mean < a.ci_high);
+  CHECK(a.ci_low == b.ci_low);
+  CHECK(a.ci_high == b.ci_high);
+  // The same replicates are drawn for every method, so doubling every value
+  // doubles the interval exactly (up to the rounding of the sums).
+  CHECK(c.ci_low == doctest::Approx(2 * a.ci_low).epsilon(1e-12));
+  CHECK(c.ci_high == doctest::Approx(2 * a.ci_high).epsilon(1e-12));
+}
