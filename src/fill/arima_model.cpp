@@ -243,67 +243,59 @@ void conclude(Pass& pass, Eigen::MatrixXd s_full, double sum_log_f, Eigen::Index
   pass.s_full = std::move(s_full);
 }
 
-/// Columns: 0 the data; 1..k the regressor; then one per diffuse starting value.
-Pass run(const StateSpace& model, std::span<const double> y, std::span<const double> regressor, bool keep) {
-  const std::size_t n = y.size();
-  const Eigen::Index m = static_cast<Eigen::Index>(model.dim());
-  const Eigen::Index k = regressor.empty() ? 0 : 1;
-  const Eigen::Index nd = static_cast<Eigen::Index>(model.diff_dim());
-  const Eigen::Index cols = 1 + k + nd;
-  const Eigen::Index r = static_cast<Eigen::Index>(model.arma_dim());
-
-  Pass pass;
-  Likelihood& lik = pass.lik;
-  Eigen::MatrixXd a = Eigen::MatrixXd::Zero(m, cols);
-  for (Eigen::Index j = 0; j < nd; ++j) a(r + j, 1 + k + j) = -1.0;
-  Eigen::MatrixXd p = model.initial_covariance();
-  Eigen::MatrixXd s_full = Eigen::MatrixXd::Zero(cols, cols);
-  Eigen::RowVectorXd data(cols), v(cols), za(cols), v_over_f(cols);
-  Eigen::VectorXd mvec(m);
-  Eigen::MatrixXd outer(cols, cols), p_outer(m, m);  // products formed here, not in temporaries
-  double sum_log_f = 0;
-  if (keep) pass.steps.resize(n);
-
-  // Steady state: once a run of observed steps leaves the predicted P
-  // unchanged (to 1e-13 of its size), P, M and F stay as they are until the
-  // next missing value.
+/// The filter of a pass. A has one column per right-hand side: 0 the data,
+/// 1..k the regressor, then one per diffuse starting value. In the steady
+/// state (a run of observed steps left the predicted P unchanged to 1e-13
+/// of its size) P, M and F stay as they are until the next missing value.
+struct Filter {
+  const StateSpace& model;
+  Eigen::Index m, k, cols, r;
+  Eigen::MatrixXd a, p;
+  Eigen::MatrixXd s_full;  ///< sum V'V/F
+  Eigen::RowVectorXd data, v, za, v_over_f;  ///< v: the step's innovations; za: Z A
+  Eigen::VectorXd mvec;                      ///< M = P Z'
+  Eigen::MatrixXd outer, p_outer, p_before;  // products formed here, not in temporaries
+  double f = 0, sum_log_f = 0;
   bool steady = false;
-  Eigen::MatrixXd p_before(m, m);
-  double f = 0;
-  for (std::size_t t = 0; t < n; ++t) {
-    const bool observed = !std::isnan(y[t]);
+
+  Filter(const StateSpace& state_space, Eigen::Index regressors)
+      : model(state_space), m(static_cast<Eigen::Index>(model.dim())), k(regressors),
+        cols(1 + k + static_cast<Eigen::Index>(model.diff_dim())), r(static_cast<Eigen::Index>(model.arma_dim())),
+        a(Eigen::MatrixXd::Zero(m, cols)), p(model.initial_covariance()), s_full(Eigen::MatrixXd::Zero(cols, cols)),
+        data(cols), v(cols), za(cols), v_over_f(cols), mvec(m), outer(cols, cols), p_outer(m, m), p_before(m, m) {
+    for (Eigen::Index j = 0; j < cols - 1 - k; ++j) a(r + j, 1 + k + j) = -1.0;
+  }
+
+  /// M = P Z' and F = Z M (kept in the steady state), and Z A.
+  void predict_signal(bool observed) {
     if (!observed) steady = false;
     if (!steady) {
       for (Eigen::Index c = 0; c < m; ++c) mvec(c) = model.design(p.col(c));  // P Z' (P symmetric)
       f = model.design(mvec);
     }
     for (Eigen::Index c = 0; c < cols; ++c) za(c) = model.design(a.col(c));
-    if (observed) {
-      if (!(f > 0) || !std::isfinite(f)) {
-        lik.finite = false;
-        return pass;
-      }
-      data.setZero();
-      data(0) = y[t];
-      if (k) data(1) = regressor[t];
-      v = data - za;
-      outer.noalias() = v.transpose() * v;
-      s_full += outer / f;
-      sum_log_f += std::log(f);
-      ++lik.observed;
-      v_over_f = v / f;
-      a.noalias() += mvec * v_over_f;
-    }
-    if (keep) {
-      Step& st = pass.steps[t];
-      st.observed = observed;
-      st.f = f;
-      st.m = mvec;
-      st.za = za;
-      if (observed) st.v = v;
-    }
+  }
+
+  /// The update by an observation y (x: the regressor's value); false
+  /// when F is not positive and finite.
+  bool observe(double y, double x) {
+    if (!(f > 0) || !std::isfinite(f)) return false;
+    data.setZero();
+    data(0) = y;
+    if (k) data(1) = x;
+    v = data - za;
+    outer.noalias() = v.transpose() * v;
+    s_full += outer / f;
+    sum_log_f += std::log(f);
+    v_over_f = v / f;
+    a.noalias() += mvec * v_over_f;
+    return true;
+  }
+
+  /// A and, unless steady, P into the next step: P <- T (P - M M'/F) T' + R Q R'.
+  void predict_state(bool observed) {
     model.transition(a);
-    if (steady) continue;
+    if (steady) return;
     if (observed) {
       p_before = p;
       p_outer.noalias() = mvec * mvec.transpose();
@@ -315,8 +307,36 @@ Pass run(const StateSpace& model, std::span<const double> y, std::span<const dou
     p.topLeftCorner(r, r) += model.disturbance();
     if (observed) steady = unchanged(p, p_before);
   }
+};
 
-  conclude(pass, std::move(s_full), sum_log_f, k, nd);
+/// Columns: 0 the data; 1..k the regressor; then one per diffuse starting value.
+Pass run(const StateSpace& model, std::span<const double> y, std::span<const double> regressor, bool keep) {
+  const std::size_t n = y.size();
+  const Eigen::Index k = regressor.empty() ? 0 : 1;
+  Pass pass;
+  if (keep) pass.steps.resize(n);
+  Filter filter(model, k);
+  for (std::size_t t = 0; t < n; ++t) {
+    const bool observed = !std::isnan(y[t]);
+    filter.predict_signal(observed);
+    if (observed) {
+      if (!filter.observe(y[t], k ? regressor[t] : 0.0)) {
+        pass.lik.finite = false;
+        return pass;
+      }
+      ++pass.lik.observed;
+    }
+    if (keep) {
+      Step& st = pass.steps[t];
+      st.observed = observed;
+      st.f = filter.f;
+      st.m = filter.mvec;
+      st.za = filter.za;
+      if (observed) st.v = filter.v;
+    }
+    filter.predict_state(observed);
+  }
+  conclude(pass, std::move(filter.s_full), filter.sum_log_f, k, static_cast<Eigen::Index>(model.diff_dim()));
   return pass;
 }
 

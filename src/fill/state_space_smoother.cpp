@@ -136,121 +136,146 @@ struct Kernel {
   }();
   void add_state_noise(Mat& x) const { x.diagonal() += noise; }
 
-  LikelihoodParts forward(std::span<const double> y, Record* rec) const {
+  /// The state of a forward pass: a and P*, the diffuse part while it lasts
+  /// (P_inf and the rank it has left), M* = P* Z' and M_inf = P_inf Z' of the
+  /// step, and the sums of the likelihood.
+  struct Pass {
+    Vec a, ms, mi, scaled;  // scaled: ms / F, formed once
+    Mat p, p_inf;
+    Eigen::Index rank;
+    bool diffuse = true;
     LikelihoodParts parts;
+    LogSum log_f, log_f_inf;
+  };
+
+  void start_record(Record* rec, std::size_t steps) const {
+    if (!rec) return;
+    rec->kind.assign(steps, StepKind::Missing);
+    rec->za.assign(steps, 0.0);
+    rec->zpz.assign(steps, 0.0);
+    rec->v.assign(steps, 0.0);
+    rec->f.assign(steps, 0.0);
+    rec->f_inf.assign(steps, 0.0);
+    rec->m_star.resize(m, static_cast<Eigen::Index>(steps));
+    rec->m_inf.clear();
+  }
+
+  /// Step i of the diffuse phase (sec. 5.2.1): an observation with F_inf > 0
+  /// absorbs one rank of the flat prior, one with F_inf = 0 updates as the
+  /// ordinary filter does; then P_inf is predicted. False when F is not
+  /// positive and finite.
+  bool diffuse_step(std::size_t i, double yt, double za, double zps, Pass& s, Record* rec) const {
+    const double h = variances[0];
+    times_design(s.p_inf, s.mi);
+    const double zpi = model.signal_of(s.mi);
+    if (rec) rec->m_inf.insert(rec->m_inf.end(), s.mi.data(), s.mi.data() + m);
+    if (!std::isnan(yt)) {
+      ++s.parts.observed;
+      const double v = yt - za;
+      const double fs = zps + h;
+      if (zpi > kDiffuseTolerance * s.p_inf.diagonal().maxCoeff()) {
+        ++s.parts.diffuse;
+        s.log_f_inf.add(zpi);
+        s.a += s.mi * (v / zpi);
+        s.p.noalias() += (s.mi * (fs / (zpi * zpi)) - s.ms / zpi) * s.mi.transpose();
+        s.p.noalias() -= (s.mi / zpi) * s.ms.transpose();
+        s.p_inf.noalias() -= (s.mi / zpi) * s.mi.transpose();
+        if (--s.rank == 0) {
+          s.p_inf.setZero();
+          s.diffuse = false;
+        }
+        if (rec) rec->kind[i] = StepKind::Diffuse;
+      } else {
+        if (!(fs > 0) || !std::isfinite(fs)) {
+          s.parts.finite = false;
+          return false;
+        }
+        s.log_f.add(fs);
+        s.parts.sum_v2_over_f += v * v / fs;
+        s.a += s.ms * (v / fs);
+        s.p.noalias() -= (s.ms / fs) * s.ms.transpose();
+        if (rec) rec->kind[i] = StepKind::DiffuseFlat;
+      }
+      if (rec) {
+        rec->v[i] = v;
+        rec->f[i] = fs;
+        rec->f_inf[i] = zpi;
+      }
+    }
+    if (rec) rec->diffuse_steps = i + 1;
+    if (s.diffuse) predict_cov(s.p_inf);
+    return true;
+  }
+
+  /// Step i of the ordinary filter with an observation. False when F is not
+  /// positive and finite.
+  bool regular_step(std::size_t i, double yt, double za, double zps, Pass& s, Record* rec) const {
+    ++s.parts.observed;
+    const double v = yt - za;
+    const double f = zps + variances[0];
+    if (!(f > 0) || !std::isfinite(f)) {
+      s.parts.finite = false;
+      return false;
+    }
+    s.log_f.add(f);
+    s.parts.sum_v2_over_f += v * v / f;
+    s.a += s.ms * (v / f);
+    s.scaled = s.ms / f;
+    s.p.noalias() -= s.scaled * s.ms.transpose();
+    if (rec) {
+      rec->kind[i] = StepKind::Regular;
+      rec->v[i] = v;
+      rec->f[i] = f;
+    }
+    return true;
+  }
+
+  LikelihoodParts forward(std::span<const double> y, Record* rec) const {
     const std::size_t n = y.size();
     const std::size_t t0 = first_observed(y);
     if (t0 == n) {
+      LikelihoodParts parts;
       parts.prior_resolved = false;
       return parts;
     }
-    const double h = variances[0];
     const std::size_t steps = n - t0;
-    if (rec) {
-      rec->kind.assign(steps, StepKind::Missing);
-      rec->za.assign(steps, 0.0);
-      rec->zpz.assign(steps, 0.0);
-      rec->v.assign(steps, 0.0);
-      rec->f.assign(steps, 0.0);
-      rec->f_inf.assign(steps, 0.0);
-      rec->m_star.resize(m, static_cast<Eigen::Index>(steps));
-      rec->m_inf.clear();
-    }
-    Vec a = Vec::Zero(m);
-    Mat p = Mat::Zero(m, m);
-    Mat p_inf = Mat::Identity(m, m);
-    Eigen::Index rank = m;
-    bool diffuse = true;
-    Vec ms = Vec::Zero(m), mi = Vec::Zero(m), scaled = Vec::Zero(m);  // scaled: ms / F, formed once
-    LogSum log_f, log_f_inf;
-
+    start_record(rec, steps);
+    Pass s{.a = Vec::Zero(m), .ms = Vec::Zero(m), .mi = Vec::Zero(m), .scaled = Vec::Zero(m), .p = Mat::Zero(m, m),
+           .p_inf = Mat::Identity(m, m), .rank = m, .diffuse = true, .parts = {}, .log_f = {}, .log_f_inf = {}};
     for (std::size_t i = 0; i < steps; ++i) {
       const double yt = y[t0 + i];
-      const bool observed = !std::isnan(yt);
-      const double za = model.signal_of(a);
-      times_design(p, ms);
-      const double zps = model.signal_of(ms);
+      const double za = model.signal_of(s.a);
+      times_design(s.p, s.ms);
+      const double zps = model.signal_of(s.ms);
       if (rec) {
         rec->za[i] = za;
         rec->zpz[i] = zps;
-        std::copy_n(ms.data(), m, rec->m_star.col(static_cast<Eigen::Index>(i)).data());
+        std::copy_n(s.ms.data(), m, rec->m_star.col(static_cast<Eigen::Index>(i)).data());
       }
-      if (diffuse) {
-        times_design(p_inf, mi);
-        const double zpi = model.signal_of(mi);
-        if (rec) rec->m_inf.insert(rec->m_inf.end(), mi.data(), mi.data() + m);
-        if (observed) {
-          ++parts.observed;
-          const double v = yt - za;
-          const double fs = zps + h;
-          if (zpi > kDiffuseTolerance * p_inf.diagonal().maxCoeff()) {
-            ++parts.diffuse;
-            log_f_inf.add(zpi);
-            a += mi * (v / zpi);
-            p.noalias() += (mi * (fs / (zpi * zpi)) - ms / zpi) * mi.transpose();
-            p.noalias() -= (mi / zpi) * ms.transpose();
-            p_inf.noalias() -= (mi / zpi) * mi.transpose();
-            if (--rank == 0) {
-              p_inf.setZero();
-              diffuse = false;
-            }
-            if (rec) rec->kind[i] = StepKind::Diffuse;
-          } else {
-            if (!(fs > 0) || !std::isfinite(fs)) {
-              parts.finite = false;
-              return parts;
-            }
-            log_f.add(fs);
-            parts.sum_v2_over_f += v * v / fs;
-            a += ms * (v / fs);
-            p.noalias() -= (ms / fs) * ms.transpose();
-            if (rec) rec->kind[i] = StepKind::DiffuseFlat;
-          }
-          if (rec) {
-            rec->v[i] = v;
-            rec->f[i] = fs;
-            rec->f_inf[i] = zpi;
-          }
-        }
-        if (rec) rec->diffuse_steps = i + 1;
-        if (diffuse) predict_cov(p_inf);
-      } else if (observed) {
-        ++parts.observed;
-        const double v = yt - za;
-        const double f = zps + h;
-        if (!(f > 0) || !std::isfinite(f)) {
-          parts.finite = false;
-          return parts;
-        }
-        log_f.add(f);
-        parts.sum_v2_over_f += v * v / f;
-        a += ms * (v / f);
-        scaled = ms / f;
-        p.noalias() -= scaled * ms.transpose();
-        if (rec) {
-          rec->kind[i] = StepKind::Regular;
-          rec->v[i] = v;
-          rec->f[i] = f;
-        }
+      if (s.diffuse) {
+        if (!diffuse_step(i, yt, za, zps, s, rec)) return s.parts;
+      } else if (!std::isnan(yt)) {
+        if (!regular_step(i, yt, za, zps, s, rec)) return s.parts;
       }
-      model.transition(a);
-      predict_cov(p);
-      add_state_noise(p);
+      model.transition(s.a);
+      predict_cov(s.p);
+      add_state_noise(s.p);
       if constexpr (M == 1) {  // the local level model: the rest on scalars when nothing is recorded
-        if (!rec && !diffuse) {
-          if (!level_likelihood_tail(y.subspan(t0 + i + 1), a(0), p(0, 0), h, variances[1], parts, log_f))
-            return parts;
+        if (!rec && !s.diffuse) {
+          if (!level_likelihood_tail(y.subspan(t0 + i + 1), s.a(0), s.p(0, 0), variances[0], variances[1], s.parts,
+                                     s.log_f))
+            return s.parts;
           break;
         }
       }
     }
-    parts.prior_resolved = !diffuse;
-    parts.sum_log_f = log_f.total();
-    parts.sum_log_f_inf = log_f_inf.total();
-    if (!std::isfinite(parts.sum_log_f) || !std::isfinite(parts.sum_v2_over_f) ||
-        !std::isfinite(parts.sum_log_f_inf))
-      parts.finite = false;
-    return parts;
+    s.parts.prior_resolved = !s.diffuse;
+    s.parts.sum_log_f = s.log_f.total();
+    s.parts.sum_log_f_inf = s.log_f_inf.total();
+    if (!std::isfinite(s.parts.sum_log_f) || !std::isfinite(s.parts.sum_v2_over_f) ||
+        !std::isfinite(s.parts.sum_log_f_inf))
+      s.parts.finite = false;
+    return s.parts;
   }
 
 };
