@@ -66,9 +66,8 @@ std::string names(const std::vector<std::string>& list) {
   return out;
 }
 
-}  // namespace
-
-std::string comparison_text(const Comparison& c, std::size_t limit) {
+/// The files, what was compared and how, and the notes on the two runs.
+std::string comparison_header(const Comparison& c) {
   std::string out = "baseline: " + c.baseline_source + "\ncurrent:  " + c.current_source + "\n";
   out += "compared: " + names(c.compared_metrics) + " (tolerance: default " + c.tolerances.fallback.describe();
   for (const auto& [metric, t] : c.tolerances.per_metric) out += ", " + metric + " " + t.describe();
@@ -81,10 +80,11 @@ std::string comparison_text(const Comparison& c, std::size_t limit) {
          std::to_string(c.min_pairs) + "+ pairs (fewer: " +
          (c.same_seed ? "the tolerance alone decides, the masks being the same" : "no conclusion, the seeds differ") + ")\n";
   for (const auto& n : c.notes) out += "note: " + n + "\n";
-  if (c.no_change)
-    return out + "\nno change: every cell and metric is identical (" + std::to_string(c.cells.size()) + " cells)\n";
+  return out;
+}
 
-  // Summary: one count per verdict, over the cells' worst compared metric.
+/// The verdict line and one count per verdict, over the cells' worst compared metric.
+std::string verdict_counts(const Comparison& c) {
   std::size_t regressed = c.regressed.size(), unsure = 0, within = 0, better = 0, same = 0, other_masks = 0;
   for (const auto& cell : c.cells) {
     other_masks += cell.more_failures_other_seed;
@@ -96,8 +96,8 @@ std::string comparison_text(const Comparison& c, std::size_t limit) {
     else if (worst == 5) ++better;
     else if (worst == 6) ++same;
   }
-  out += "\n" + (regressed ? "REGRESSION in " + std::to_string(regressed) + " of " + std::to_string(c.cells.size()) + " cells"
-                            : "no regression: " + std::to_string(c.cells.size()) + " cells compared") + "\n";
+  std::string out = "\n" + (regressed ? "REGRESSION in " + std::to_string(regressed) + " of " + std::to_string(c.cells.size()) + " cells"
+                                      : "no regression: " + std::to_string(c.cells.size()) + " cells compared") + "\n";
   out += "  cells: " + std::to_string(regressed) + " regressed, " + std::to_string(unsure) +
          " worse beyond tolerance but not significant, " + std::to_string(within) + " worse within tolerance, " +
          std::to_string(better) + " better, " + std::to_string(same) + " unchanged\n";
@@ -106,8 +106,12 @@ std::string comparison_text(const Comparison& c, std::size_t limit) {
   if (!c.only_in_baseline.empty() || !c.only_in_current.empty())
     out += "  cells in one file only: " + std::to_string(c.only_in_baseline.size()) + " in the baseline, " +
            std::to_string(c.only_in_current.size()) + " in the current results\n";
+  return out;
+}
 
-  // The worst cells: one row each (its worst metric), or every changed metric with --all.
+/// The worst cells: one row each (its worst metric), or every changed metric
+/// with `limit` 0; regressed cells first, then the worst changes.
+std::string changes_table(const Comparison& c, std::size_t limit) {
   std::vector<std::pair<const CellChange*, const MetricChange*>> rows;
   for (const auto& cell : c.cells) {
     const MetricChange* worst = nullptr;
@@ -126,36 +130,52 @@ std::string comparison_text(const Comparison& c, std::size_t limit) {
     return worse_first(*a.second, *b.second);
   });
   const std::size_t shown = limit == 0 ? rows.size() : std::min(rows.size(), limit);
-  if (shown) {
-    std::vector<std::vector<std::string>> table;
-    for (std::size_t i = 0; i < shown; ++i)
-      table.push_back(rows[i].second ? metric_row(*rows[i].first, *rows[i].second) : failure_row(*rows[i].first));
-    out += "\n" + std::string(limit == 0 ? "Every change" : "Worst " + std::to_string(shown) + " cells (each by its worst metric)") +
-           ":\n" + text_table({"cell", "metric", "baseline", "current", "change", "relative", "pairs", "p (Holm)", "verdict"}, table);
-    if (shown < rows.size())
-      out += "(" + std::to_string(rows.size() - shown) + " more changed cells not shown; --all prints every change)\n";
+  if (!shown) return "";
+  std::vector<std::vector<std::string>> table;
+  for (std::size_t i = 0; i < shown; ++i)
+    table.push_back(rows[i].second ? metric_row(*rows[i].first, *rows[i].second) : failure_row(*rows[i].first));
+  std::string out = "\n" + std::string(limit == 0 ? "Every change" : "Worst " + std::to_string(shown) + " cells (each by its worst metric)") +
+                    ":\n" + text_table({"cell", "metric", "baseline", "current", "change", "relative", "pairs", "p (Holm)", "verdict"}, table);
+  if (shown < rows.size())
+    out += "(" + std::to_string(rows.size() - shown) + " more changed cells not shown; --all prints every change)\n";
+  return out;
+}
+
+/// A titled list, cut at `limit` items (0: all).
+std::string item_list(const std::string& title, const std::vector<std::string>& items, std::size_t limit) {
+  if (items.empty()) return "";
+  std::string out = "\n" + title + " (" + std::to_string(items.size()) + "):\n";
+  const std::size_t n = limit == 0 ? items.size() : std::min(items.size(), limit);
+  for (std::size_t i = 0; i < n; ++i) out += "  " + items[i] + "\n";
+  if (n < items.size()) out += "  ... and " + std::to_string(items.size() - n) + " more (--all)\n";
+  return out;
+}
+
+/// Each regressed cell with its reasons.
+std::vector<std::string> regression_reasons(const Comparison& c) {
+  std::vector<std::string> reasons;
+  for (const auto& cell : c.cells) {
+    if (!cell.regressed) continue;
+    std::string line = cell.name() + ": ";
+    for (std::size_t i = 0; i < cell.reasons.size(); ++i) line += (i ? "; " : "") + cell.reasons[i];
+    reasons.push_back(line);
   }
-  auto list = [&](const std::string& title, const std::vector<std::string>& items) {
-    if (items.empty()) return;
-    out += "\n" + title + " (" + std::to_string(items.size()) + "):\n";
-    const std::size_t n = limit == 0 ? items.size() : std::min(items.size(), limit);
-    for (std::size_t i = 0; i < n; ++i) out += "  " + items[i] + "\n";
-    if (n < items.size()) out += "  ... and " + std::to_string(items.size() - n) + " more (--all)\n";
-  };
-  list("cells only in the baseline", c.only_in_baseline);
-  list("cells only in the current results", c.only_in_current);
-  list("metrics only in the baseline", c.metrics_only_in_baseline);
-  list("metrics only in the current results", c.metrics_only_in_current);
-  if (regressed) {
-    std::vector<std::string> reasons;
-    for (const auto& cell : c.cells) {
-      if (!cell.regressed) continue;
-      std::string line = cell.name() + ": ";
-      for (std::size_t i = 0; i < cell.reasons.size(); ++i) line += (i ? "; " : "") + cell.reasons[i];
-      reasons.push_back(line);
-    }
-    list("Regressed cells", reasons);
-  }
+  return reasons;
+}
+
+}  // namespace
+
+std::string comparison_text(const Comparison& c, std::size_t limit) {
+  std::string out = comparison_header(c);
+  if (c.no_change)
+    return out + "\nno change: every cell and metric is identical (" + std::to_string(c.cells.size()) + " cells)\n";
+  out += verdict_counts(c);
+  out += changes_table(c, limit);
+  out += item_list("cells only in the baseline", c.only_in_baseline, limit);
+  out += item_list("cells only in the current results", c.only_in_current, limit);
+  out += item_list("metrics only in the baseline", c.metrics_only_in_baseline, limit);
+  out += item_list("metrics only in the current results", c.metrics_only_in_current, limit);
+  if (!c.regressed.empty()) out += item_list("Regressed cells", regression_reasons(c), limit);
   return out;
 }
 

@@ -107,6 +107,73 @@ std::string analysis_section(const ResultSet& results, const Summary& summary, c
   return out;
 }
 
+/// A series' verdict as sentences: the recommendation, its reasons and caveats.
+std::string verdict_sentences(const SeriesVerdict& v) {
+  std::string out = "**" + markdown_text(v.series) + "**. ";
+  if (v.recommended.empty()) {
+    out += "No method could be ranked.";
+  } else {
+    out += markdown_code(v.recommended) + " is recommended";
+    if (!v.equally_good.empty()) {
+      std::vector<std::string> names;
+      for (const auto& n : v.equally_good) names.push_back(markdown_code(n));
+      out += "; " + join(names) + (names.size() == 1 ? " was" : " were") + " shown equally good";
+    }
+    out += ".";
+  }
+  for (const auto& r : v.reasons) out += " " + r;
+  for (const auto& c : v.caveats) out += " " + c;
+  return out + "\n\n";
+}
+
+/// The other methods of a condition grouped by their standing against the
+/// best, each with its relative difference and failures.
+std::string standings_text(const CellGroup& g) {
+  std::map<Standing, std::vector<std::string>> by;
+  for (std::size_t i = 1; i < g.methods.size(); ++i) {
+    const auto& m = g.methods[i];
+    std::string item = markdown_code(m.method);
+    if (std::isfinite(m.relative_difference)) item += " (" + signed_percent(m.relative_difference) + ")";
+    if (m.failures) item += " (failed " + std::to_string(m.failures) + " of " + std::to_string(m.trials) + ")";
+    by[m.standing].push_back(item);
+  }
+  std::string out;
+  for (auto st : {Standing::Better, Standing::Equivalent, Standing::NotDistinguishable, Standing::Worse})
+    if (by.count(st)) out += " " + std::string(standing_name(st)) + ": " + join(by[st]) + ".";
+  return out;
+}
+
+/// One condition's line: the best method with its mean, interval and margin,
+/// then the others by standing.
+std::string condition_line(const CellGroup& g, std::size_t rank_col, const MetricColumn& rc, const std::string& level) {
+  const auto& best = g.methods.front();
+  const auto& s = best.metrics[rank_col];
+  std::string out = "- " + g.scheme + ", rate " + format_double(g.rate) + " (" + std::to_string(g.replicates) +
+                    " replicates): best `" + best.method + "`, mean " + rc.name + " ";
+  const int decimals = std::isfinite(s.ci_low) ? supported_decimals(s.ci_low, s.ci_high) : -1;
+  out += fixed_number(s.mean, decimals);
+  if (std::isfinite(s.ci_low))
+    out += " (" + level + "% interval " + fixed_number(s.ci_low, decimals) + " to " + fixed_number(s.ci_high, decimals) + ")";
+  out += "; margin ±" + fixed_number(g.margin, decimals) + ".";
+  out += standings_text(g);
+  if (g.underpowered())
+    out += " With " + std::to_string(g.replicates) + " replicates no difference could be detected (at least " +
+           std::to_string(g.replicates_needed) + " needed).";
+  return out + "\n";
+}
+
+/// The across-series line of the statistics over all conditions; "" when not made.
+std::string across_line(const AcrossSeries& a) {
+  if (a.datasets < 2 || a.methods.empty() || !a.scheme.empty()) return "";
+  std::size_t best = 0;
+  for (std::size_t i = 1; i < a.mean_ranks.size(); ++i)
+    if (a.mean_ranks[i] < a.mean_ranks[best]) best = i;
+  return "Across N = " + std::to_string(a.datasets) + " series, `" + a.methods[best] + "` had the best mean rank (" +
+         short_number(a.mean_ranks[best]) + "); Friedman χ² = " + short_number(a.friedman_chi2) + ", p = " +
+         short_number(a.friedman_p) + "; Iman-Davenport F = " + short_number(a.iman_davenport_f) + ", p = " +
+         short_number(a.iman_davenport_p) + "; critical difference " + short_number(a.critical_difference) + ".\n";
+}
+
 /// The verdict per series, then each condition's standings with effect sizes.
 std::string results_section(const ResultSet& results, const Summary& summary) {
   const std::size_t rank_col = results.column_index(results.rank_by);
@@ -114,60 +181,12 @@ std::string results_section(const ResultSet& results, const Summary& summary) {
   const std::string level = short_number(100 * (1 - summary.alpha));
   std::string out = "\n## Results\n\n";
   for (const auto& v : summary.verdict.series) {
-    out += "**" + markdown_text(v.series) + "**. ";
-    if (v.recommended.empty()) {
-      out += "No method could be ranked.";
-    } else {
-      out += markdown_code(v.recommended) + " is recommended";
-      if (!v.equally_good.empty()) {
-        std::vector<std::string> names;
-        for (const auto& n : v.equally_good) names.push_back(markdown_code(n));
-        out += "; " + join(names) + (names.size() == 1 ? " was" : " were") + " shown equally good";
-      }
-      out += ".";
-    }
-    for (const auto& r : v.reasons) out += " " + r;
-    for (const auto& c : v.caveats) out += " " + c;
-    out += "\n\n";
-    for (const auto& g : summary.groups) {
-      if (g.series != v.series || g.methods.empty()) continue;
-      const auto& best = g.methods.front();
-      const auto& s = best.metrics[rank_col];
-      out += "- " + g.scheme + ", rate " + format_double(g.rate) + " (" + std::to_string(g.replicates) +
-             " replicates): best `" + best.method + "`, mean " + rc.name + " ";
-      const int decimals = std::isfinite(s.ci_low) ? supported_decimals(s.ci_low, s.ci_high) : -1;
-      out += fixed_number(s.mean, decimals);
-      if (std::isfinite(s.ci_low))
-        out += " (" + level + "% interval " + fixed_number(s.ci_low, decimals) + " to " + fixed_number(s.ci_high, decimals) + ")";
-      out += "; margin ±" + fixed_number(g.margin, decimals) + ".";
-      std::map<Standing, std::vector<std::string>> by;
-      for (std::size_t i = 1; i < g.methods.size(); ++i) {
-        const auto& m = g.methods[i];
-        std::string item = markdown_code(m.method);
-        if (std::isfinite(m.relative_difference))
-          item += " (" + signed_percent(m.relative_difference) + ")";
-        if (m.failures) item += " (failed " + std::to_string(m.failures) + " of " + std::to_string(m.trials) + ")";
-        by[m.standing].push_back(item);
-      }
-      for (auto st : {Standing::Better, Standing::Equivalent, Standing::NotDistinguishable, Standing::Worse})
-        if (by.count(st)) out += " " + std::string(standing_name(st)) + ": " + join(by[st]) + ".";
-      if (g.underpowered())
-        out += " With " + std::to_string(g.replicates) + " replicates no difference could be detected (at least " +
-               std::to_string(g.replicates_needed) + " needed).";
-      out += "\n";
-    }
+    out += verdict_sentences(v);
+    for (const auto& g : summary.groups)
+      if (g.series == v.series && !g.methods.empty()) out += condition_line(g, rank_col, rc, level);
     out += "\n";
   }
-  for (const auto& a : summary.across) {
-    if (a.datasets < 2 || a.methods.empty() || !a.scheme.empty()) continue;
-    std::size_t best = 0;
-    for (std::size_t i = 1; i < a.mean_ranks.size(); ++i)
-      if (a.mean_ranks[i] < a.mean_ranks[best]) best = i;
-    out += "Across N = " + std::to_string(a.datasets) + " series, `" + a.methods[best] + "` had the best mean rank (" +
-           short_number(a.mean_ranks[best]) + "); Friedman χ² = " + short_number(a.friedman_chi2) + ", p = " +
-           short_number(a.friedman_p) + "; Iman-Davenport F = " + short_number(a.iman_davenport_f) + ", p = " +
-           short_number(a.iman_davenport_p) + "; critical difference " + short_number(a.critical_difference) + ".\n";
-  }
+  for (const auto& a : summary.across) out += across_line(a);
   return out;
 }
 
