@@ -20,18 +20,17 @@ ResultSet results_from_json(const nlohmann::json& j, const std::string& source) 
                            std::to_string(kResultsSchemaVersion) + ")");
     r.context = context_from_json(stored.object("context"));
     r.series = series_from_json(stored, "series");
-    r.rank_by = j.at("rank_by").get<std::string>();
+    r.rank_by = stored.text("rank_by");
     r.alpha = stored_alpha(j.at("alpha"), source + ": /alpha");
     r.equivalence = j.value("equivalence", kDefaultEquivalence);
     if (!(r.equivalence > 0 && r.equivalence < 1))
       throw InputError(source + ": /equivalence", "expected a number in (0, 1)");
     r.columns = columns_from_json(stored, "columns");
-    const auto& trials = j.at("trials");
+    const auto& trials = stored.array("trials");
     for (std::size_t i = 0; i < trials.size(); ++i)
       r.trials.push_back(trial_from_json(trials[i], r.columns, source + ": /trials/" + std::to_string(i)));
-    for (const auto& w : j.at("warnings"))
-      r.warnings.push_back({w.at("code").get<std::string>(), w.at("where").get<std::string>(),
-                            w.at("message").get<std::string>(), w.at("hint").get<std::string>()});
+    for (const auto& w : stored.objects("warnings"))
+      r.warnings.push_back({w.text("code"), w.text("where"), w.text("message"), w.text("hint")});
     r.timing = timing_from_json(stored, "timing");
     if (j.contains("examples") && !j.at("examples").is_null()) r.examples = examples_from_json(stored, "examples");
   } catch (const nlohmann::json::exception& e) {

@@ -1,5 +1,5 @@
 // The typed parts of a results file (the run's context, the series, the
-// timing, the example windows) written and read back: the same values and the same JSON, members
+// timing, the example windows, the ranking metric, the warnings) written and read back: the same values and the same JSON, members
 // that are optional stay absent, and a bad field in a file from someone else
 // is one line naming the file and the field's JSON pointer.
 #include <doctest/doctest.h>
@@ -251,4 +251,23 @@ TEST_CASE("a bad example window field is an input error naming the file and its 
   j = good;
   j["examples"]["series"][1]["rate"] = "a quarter";
   check_names(read_error(j), "/examples/series/1/rate");
+}
+
+TEST_CASE("a bad ranking metric, trials array or warning is an input error naming the file and its JSON pointer") {
+  ResultSet r = small_results();
+  r.warnings.push_back({"few-masked-points", "flow", "only 3 points were masked", "raise the rate"});
+  const json good = stored(r);
+  REQUIRE(results_from_json(good, "good.json").warnings.size() == r.warnings.size());
+  json j = good;
+  j["rank_by"] = 3;
+  check_names(read_error(j), "/rank_by");
+  j = good;
+  j["trials"] = json::object();
+  check_names(read_error(j), "/trials");
+  j = good;
+  j["warnings"][0].erase("hint");
+  check_names(read_error(j), "/warnings/0/hint");
+  j = good;
+  j["warnings"][0]["code"] = json::array();
+  check_names(read_error(j), "/warnings/0/code");
 }
