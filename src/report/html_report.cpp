@@ -21,6 +21,7 @@ namespace gapmark {
 namespace {
 
 using svg::escape;
+using svg::escape_with_code;
 
 constexpr std::size_t kShownMethods = 5;  ///< methods drawn in the charts of a series
 const char* kGapColumns[3] = {"rmse_gap_short", "rmse_gap_medium", "rmse_gap_long"};
@@ -154,12 +155,12 @@ std::string recommendation_card(const Summary& summary, const std::string& serie
   }
   if (v != nullptr && !v->reasons.empty()) {
     out += "<ul>";
-    for (const auto& r : v->reasons) out += "<li>" + escape(r) + "</li>";
+    for (const auto& r : v->reasons) out += "<li>" + escape_with_code(r) + "</li>";
     out += "</ul>";
   }
   if (v != nullptr && !v->caveats.empty()) {
     out += "<ul class=\"caveats\">";
-    for (const auto& c : v->caveats) out += "<li><strong>Caution:</strong> " + escape(c) + "</li>";
+    for (const auto& c : v->caveats) out += "<li><strong>Caution:</strong> " + escape_with_code(c) + "</li>";
     out += "</ul>";
   }
   return out + "</div>";

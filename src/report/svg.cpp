@@ -21,6 +21,18 @@ std::string escape(std::string_view text) {
   return out;
 }
 
+std::string escape_with_code(std::string_view text) {
+  std::string out;
+  std::size_t from = 0;
+  for (std::size_t open = text.find('`'); open != std::string_view::npos; open = text.find('`', from)) {
+    const std::size_t close = text.find('`', open + 1);
+    if (close == std::string_view::npos) break;
+    out += escape(text.substr(from, open - from)) + "<code>" + escape(text.substr(open + 1, close - open - 1)) + "</code>";
+    from = close + 1;
+  }
+  return out + escape(text.substr(from));
+}
+
 std::string coord(double v) {
   if (!std::isfinite(v)) return "0";
   char buffer[32];

@@ -11,6 +11,10 @@ namespace gapmark::svg {
 
 /// Escapes & < > " ' for HTML text and attribute values.
 std::string escape(std::string_view text);
+/// Escapes `text` and sets each `name` in backticks (as the verdict's
+/// sentences, written for Markdown and the terminal, mark names) as
+/// <code>name</code>; an unpaired backtick stays as it is.
+std::string escape_with_code(std::string_view text);
 /// A coordinate with at most two decimals ("12.5", "-3").
 std::string coord(double v);
 /// About `target` round tick values (1, 2, 5 x 10^k steps) covering [lo, hi].

@@ -156,6 +156,9 @@ TEST_CASE("report.html is self-contained and readable without the JSON") {
   CHECK(count(html, "<svg class=\"chart\"") == 2 * 2 + 6 + 2 * 2 + across);
   CHECK(count(html, "<title>Mean ranks across series") == across);
   for (const auto& g : run.summary.groups) CHECK(html.find(svg::escape(g.methods.front().method)) != std::string::npos);
+  // The verdict's sentences mark names with backticks for Markdown; the page sets them as code.
+  CHECK(count(html, "than the <code>mean</code> baseline") == 2);
+  CHECK(html.find('`') == std::string::npos);
   // Balanced markup for the elements we open.
   for (const char* tag : {"section", "table", "svg", "details", "g"})
     CHECK(count(html, std::string("<") + tag + " ") + count(html, std::string("<") + tag + ">") ==
