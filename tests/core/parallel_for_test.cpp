@@ -3,8 +3,10 @@
 #include <doctest/doctest.h>
 
 #include <atomic>
+#include <chrono>
 #include <stdexcept>
 #include <string>
+#include <thread>
 #include <vector>
 
 #include "gapmark/parallel_for.hpp"
@@ -31,11 +33,20 @@ TEST_CASE("parallel_for rethrows a body's exception and hands out no index after
   for (unsigned threads : {1u, 2u, 4u}) {
     CAPTURE(threads);
     std::atomic<std::size_t> started{0};
+    std::atomic<bool> failing{false};
     std::string message;
     try {
       gapmark::parallel_for(10000, threads, [&](std::size_t i) {
         ++started;
-        if (i == 5) throw std::runtime_error("body failed at 5");
+        if (i == 5) {
+          failing = true;
+          throw std::runtime_error("body failed at 5");
+        }
+        // Once index 5 is failing, the other bodies take 1 ms each: the
+        // handing out must stop within a few of them, not after the 9,994
+        // left (which, without the pause, a busy machine could let the
+        // other threads finish before the failing thread is scheduled again).
+        if (failing) std::this_thread::sleep_for(std::chrono::milliseconds(1));
       });
     } catch (const std::runtime_error& e) {
       message = e.what();
