@@ -8,6 +8,7 @@
 #include <algorithm>
 #include <cmath>
 #include <map>
+#include <optional>
 #include <set>
 
 #include "gapmark/analysis/test_names.hpp"
@@ -126,15 +127,17 @@ std::string call_name(const std::string& label) {
 }
 
 /// The forecaster of the run's "forecast" metric, from its stored spec bound
-/// as the run bound it (Holt-Winters, the default, when the spec cannot be bound).
-std::string forecast_model(const ResultSet& results) {
+/// as the run bound it; none when the stored spec cannot be bound (a results
+/// file of another version), so that nothing is cited that may not have
+/// been used.
+std::optional<std::string> forecast_model(const ResultSet& results) {
   namespace fc = metric_names::forecast;
   try {
     for (const auto& m : bind_spec_metrics(results.context.spec, "results: /context/spec"))
       if (m.entry && m.entry->name == fc::kName) return m.params.text(fc::kModel);
   } catch (const InputError&) {
   }
-  return fc::kHoltWinters;
+  return std::nullopt;
 }
 
 }  // namespace
