@@ -29,15 +29,15 @@ extern "C" int LLVMFuzzerTestOneInput(const std::uint8_t* data, std::size_t size
   } catch (const gapmark::InputError&) {
   }
   try {
-    const gapmark::data::RawData raw = gapmark::data::parse_raw(csv);
+    const gapmark::RawData raw = gapmark::parse_raw(csv);
     if (raw.lines.size() != raw.row_count()) __builtin_trap();
   } catch (const gapmark::InputError&) {
   }
   if (csv.header.size() >= 3) {
     try {
-      gapmark::data::LongReadOptions options;
+      gapmark::LongReadOptions options;
       options.group_columns = {csv.header[0]};
-      (void)gapmark::data::read_long_series(csv, options);
+      (void)gapmark::read_long_series(csv, options);
     } catch (const gapmark::InputError&) {
     }
   }
