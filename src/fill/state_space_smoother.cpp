@@ -160,6 +160,22 @@ struct Kernel {
     rec->m_inf.clear();
   }
 
+  /// The ordinary filter's update with innovation v and its variance f
+  /// (also a diffuse-phase observation with F_inf = 0). False when f is not
+  /// positive and finite.
+  static bool ordinary_update(double v, double f, Pass& s) {
+    if (!(f > 0) || !std::isfinite(f)) {
+      s.parts.finite = false;
+      return false;
+    }
+    s.log_f.add(f);
+    s.parts.sum_v2_over_f += v * v / f;
+    s.a += s.ms * (v / f);
+    s.scaled = s.ms / f;
+    s.p.noalias() -= s.scaled * s.ms.transpose();
+    return true;
+  }
+
   /// Step i of the diffuse phase (sec. 5.2.1): an observation with F_inf > 0
   /// absorbs one rank of the flat prior, one with F_inf = 0 updates as the
   /// ordinary filter does; then P_inf is predicted. False when F is not
@@ -186,14 +202,7 @@ struct Kernel {
         }
         if (rec) rec->kind[i] = StepKind::Diffuse;
       } else {
-        if (!(fs > 0) || !std::isfinite(fs)) {
-          s.parts.finite = false;
-          return false;
-        }
-        s.log_f.add(fs);
-        s.parts.sum_v2_over_f += v * v / fs;
-        s.a += s.ms * (v / fs);
-        s.p.noalias() -= (s.ms / fs) * s.ms.transpose();
+        if (!ordinary_update(v, fs, s)) return false;
         if (rec) rec->kind[i] = StepKind::DiffuseFlat;
       }
       if (rec) {
@@ -213,15 +222,7 @@ struct Kernel {
     ++s.parts.observed;
     const double v = yt - za;
     const double f = zps + variances[0];
-    if (!(f > 0) || !std::isfinite(f)) {
-      s.parts.finite = false;
-      return false;
-    }
-    s.log_f.add(f);
-    s.parts.sum_v2_over_f += v * v / f;
-    s.a += s.ms * (v / f);
-    s.scaled = s.ms / f;
-    s.p.noalias() -= s.scaled * s.ms.transpose();
+    if (!ordinary_update(v, f, s)) return false;
     if (rec) {
       rec->kind[i] = StepKind::Regular;
       rec->v[i] = v;
